@@ -1,0 +1,1 @@
+export type { Point, Ring, Polyline, Region } from './types.js';
