@@ -1,0 +1,158 @@
+/**
+ * Writes the schedules in fixtures/ from the invented scenarios of DOMAIN.md §6. Run with `npx tsx
+ * scripts/make-fixtures.ts`; the output is deterministic, so re-running it changes nothing unless this file changed.
+ * Every number here is invented for demonstration.
+ */
+import { writeFileSync } from 'node:fs';
+
+type P = [number, number];
+
+const round = (x: number) => Math.round(x * 1e4) / 1e4;
+
+/** A 40 mm wide solid strip on a flat base: top edge y(x) sampled every `step` mm, walls up to y(0) and y(40). */
+function strip(top: (x: number) => number, step = 1): { outer: P[]; holes: P[][] } {
+  const outer: P[] = [
+    [0, 0],
+    [40, 0],
+  ];
+  for (let x = 40; x >= -1e-9; x -= step) outer.push([round(x), round(top(x))]);
+  return { outer, holes: [] };
+}
+
+const s2 = (x: number) => Math.sin(x) ** 2;
+const flat = () => 8;
+/** Single rounded crown, 16 mm high at the middle. */
+const crown = (x: number) => 8 + 8 * s2((Math.PI * x) / 40);
+/** Double crown: two humps of 15.5 mm with an 11 mm saddle between. */
+const doubleCrown = (x: number) => 8 + 6 * s2((2 * Math.PI * x) / 40) + 3 * s2((Math.PI * x) / 40);
+
+const demo = {
+  name: 'edging-strip-demo',
+  material: 'PVC-U',
+  process: { line_speed_m_per_min: 2.0, die_temperature_c: 190 },
+  limits: {
+    draw_down: { min: 1.0, max: 1.3 },
+    min_wall_mm: 1.5,
+    max_wall_ratio: 2.5,
+    fit_tolerance_mm: 0.2,
+    max_plates: 24,
+  },
+  plates: { pivot_hole_diameter_mm: 4.0, ligament_mm: 3.0, thickness_mm: 6.0, depth_mm: 25.0 },
+  actuators: { count: 1, max_speed_deg_per_s: 60, max_accel_deg_per_s2: 300 },
+  time_step_s: 0.05,
+  repeat_length_m: 1.5,
+  moving_span: { start: [0, 8], end: [40, 8] },
+  stations: [
+    { position_m: 0.0, orifice: strip(flat) },
+    { position_m: 0.375, orifice: strip(crown) },
+    { position_m: 0.75, orifice: strip(doubleCrown) },
+    { position_m: 1.125, orifice: strip(flat) },
+  ],
+};
+
+/** A bow-tie: the outer ring crosses itself at (20, 5). */
+const selfIntersecting = {
+  name: 'self-intersecting-ring',
+  stations: [
+    {
+      position_m: 0,
+      orifice: {
+        outer: [
+          [0, 0],
+          [40, 10],
+          [40, 0],
+          [0, 10],
+        ],
+      },
+    },
+  ],
+};
+
+/** A 40×6 strip with a 1.0 mm thick, 6 mm tall fin on top at x 19.5–20.5: below a 1.5 mm minimum wall. */
+const thinWall = {
+  name: 'thin-fin',
+  material: 'PVC-U',
+  limits: { min_wall_mm: 1.5 },
+  stations: [
+    {
+      position_m: 0,
+      orifice: {
+        outer: [
+          [0, 0],
+          [40, 0],
+          [40, 6],
+          [20.5, 6],
+          [20.5, 12],
+          [19.5, 12],
+          [19.5, 6],
+          [0, 6],
+        ],
+      },
+    },
+  ],
+};
+
+/** A hollow cover: 40 wide with a 32×6 chamber held by a mandrel; the top wall changes from flat to crowned. */
+function hollow(top: (x: number) => number): { outer: P[]; holes: P[][] } {
+  const s = strip(top);
+  return {
+    outer: s.outer,
+    holes: [
+      [
+        [4, 3],
+        [4, 9],
+        [36, 9],
+        [36, 3],
+      ],
+    ],
+  };
+}
+const hollowProfile = {
+  name: 'hollow-cover',
+  material: 'PVC-U',
+  limits: { min_wall_mm: 2.0, max_wall_ratio: 3 },
+  moving_span: { start: [0, 12], end: [40, 12] },
+  stations: [
+    { position_m: 0, orifice: hollow(() => 12) },
+    { position_m: 0.5, orifice: hollow((x) => 12 + 4 * s2((Math.PI * x) / 40)) },
+  ],
+};
+
+/** Throughput fixed at 14 kg/h: the crowned station's orifice is far too large for the product at 2 m/min. */
+const drawDownOut = {
+  name: 'draw-down-out-of-range',
+  material: 'PVC-U',
+  process: { line_speed_m_per_min: 2.0, throughput_kg_per_h: 14 },
+  limits: { draw_down: { min: 1.0, max: 1.2 } },
+  stations: [
+    { position_m: 0, orifice: strip(flat) },
+    { position_m: 0.5, orifice: strip(crown) },
+  ],
+};
+
+/** The second station's base is drawn 1 mm lower along x 10–30: the die body would have to move too. */
+const fixedPartDisagrees = {
+  name: 'fixed-part-disagrees',
+  stations: [
+    { position_m: 0, orifice: strip(flat) },
+    {
+      position_m: 0.5,
+      orifice: {
+        outer: [[0, 0], [10, 0], [10, -1], [30, -1], [30, 0], [40, 0], ...strip(crown).outer.slice(2)],
+      },
+    },
+  ],
+};
+
+const files: Record<string, unknown> = {
+  'demo-edging-strip.json': demo,
+  'self-intersecting.json': selfIntersecting,
+  'thin-wall.json': thinWall,
+  'hollow-profile.json': hollowProfile,
+  'draw-down-out-of-range.json': drawDownOut,
+  'fixed-part-disagrees.json': fixedPartDisagrees,
+};
+for (const [name, body] of Object.entries(files)) {
+  writeFileSync(new URL(`../fixtures/${name}`, import.meta.url), `${JSON.stringify(body, null, 1)}\n`);
+}
+console.log(`wrote ${Object.keys(files).length} fixtures`);

@@ -1,0 +1,62 @@
+/**
+ * Every HTTP error the service returns, with its status, meaning and how to fix it. api-spec/errors.md documents the
+ * same list; a test keeps the two in step.
+ */
+export const ERROR_CATALOGUE = Object.freeze({
+  invalid_schedule: {
+    status: 400,
+    meaning: 'The schedule does not match the wire format or describes an impossible die.',
+    fix: 'Read `details`: each entry names the field (e.g. `stations[2].orifice.outer`) and what is wrong with it.',
+  },
+  malformed_json: {
+    status: 400,
+    meaning: 'The request body is not valid JSON.',
+    fix: 'Send a JSON document with `Content-Type: application/json`; check for trailing commas and unquoted names.',
+  },
+  unsupported_media_type: {
+    status: 415,
+    meaning: 'The request body is not JSON.',
+    fix: 'Send the schedule as `application/json`.',
+  },
+  body_too_large: {
+    status: 413,
+    meaning: 'The request body exceeds the size limit (5 MiB).',
+    fix: 'Send fewer stations or fewer vertices per ring; resample dense CAD outlines before posting.',
+  },
+  not_found: {
+    status: 404,
+    meaning: 'No such route or resource.',
+    fix: 'Check the path and the id; plans are kept by the service that created them.',
+  },
+  rate_limited: {
+    status: 429,
+    meaning: 'Too many requests in a short time.',
+    fix: 'Wait the number of seconds in the `Retry-After` header and try again.',
+  },
+  internal: {
+    status: 500,
+    meaning: 'The service failed unexpectedly; nothing was stored.',
+    fix: 'Report the `request_id` from the response to the service owners.',
+  },
+} as const);
+
+export type ErrorCode = keyof typeof ERROR_CATALOGUE;
+
+/** One entry of an error's `details`: the field's path and what is wrong with it. */
+export interface ErrorDetail {
+  readonly path: string;
+  readonly message: string;
+}
+
+/** The body of every error response. */
+export interface ErrorBody {
+  readonly error: ErrorCode;
+  readonly message: string;
+  readonly details: ErrorDetail[];
+  readonly request_id?: string;
+}
+
+/** Builds an error body from the catalogue. */
+export function errorBody(code: ErrorCode, message: string, details: readonly ErrorDetail[] = []): ErrorBody {
+  return { error: code, message, details: [...details] };
+}

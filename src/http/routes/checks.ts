@@ -1,0 +1,41 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { checkSchedule } from '../../pipeline/index.js';
+import { errorBody } from '../error-catalogue.js';
+import { CheckReportWire, ErrorWire } from '../report-schema.js';
+import { ScheduleWire } from '../schedule-schema.js';
+import { toCheckReport } from '../to-check-report.js';
+import { toSchedule } from '../to-schedule.js';
+
+/** `POST /v1/checks`: measure every station and report process findings, with safety cautions. */
+export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
+  app.post(
+    '/v1/checks',
+    {
+      schema: {
+        summary: 'Check a schedule of orifice profiles',
+        description:
+          'Measures every station (area, perimeter, thinnest and thickest wall), runs the process checks (mass balance, ' +
+          'area draw-down, slit-flow balance, land pressure), finds the moving span, and returns findings and safety cautions.',
+        tags: ['checks'],
+        body: ScheduleWire,
+        response: { 200: CheckReportWire, 400: ErrorWire },
+      },
+    },
+    async (request, reply) => {
+      const mapped = toSchedule(request.body);
+      if (!mapped.ok) {
+        return reply.code(400).send({
+          ...errorBody(
+            'invalid_schedule',
+            'The schedule describes an orifice or a station order the die cannot make.',
+            mapped.problems,
+          ),
+          request_id: request.id,
+        });
+      }
+      const check = checkSchedule(mapped.schedule);
+      request.log.info({ stations: check.stations.length, findings: check.findings.length }, 'schedule checked');
+      return toCheckReport(mapped.schedule, check);
+    },
+  );
+};

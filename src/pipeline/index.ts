@@ -1,0 +1,1 @@
+export { type StationCheck, type ScheduleCheck, checkSchedule } from './check-schedule.js';

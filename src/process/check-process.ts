@@ -1,0 +1,218 @@
+import type { Point } from '../geometry/index.js';
+import type { Finding, Schedule } from '../domain/index.js';
+import { MATERIAL_PRESETS } from '../domain/index.js';
+import { areaDrawDownRatio, pullerSpeedForDrawDown, throughputForDrawDown, velocityDrawRatio } from './draw-down.js';
+import { meltSpeedMPerS, productAreaMm2 } from './mass-balance.js';
+import { slitFlowRatioAtEqualPressure, slitPressureDropPa } from './slit-flow.js';
+
+/** What geometry measured on one station, the input of the process checks. */
+export interface StationMeasures {
+  readonly areaMm2: number;
+  readonly perimeterMm: number;
+  readonly minWallMm: number;
+  readonly maxWallMm: number;
+  readonly minWallAt: Point;
+  /** Pieces thinner than the schedule's minimum wall, with their centroids (mm, die-body frame). */
+  readonly thinWalls: readonly { readonly centroid: Point; readonly areaMm2: number }[];
+}
+
+/** Process figures of one station. Speeds m/s, areas mm², pressure bar. */
+export interface StationProcess {
+  /** Product cross-section at the nominal line speed, mm². */
+  readonly productAreaMm2: number;
+  /** Area draw-down ratio A_orifice/A_product at the nominal line speed. */
+  readonly drawDownRatio: number;
+  /** Velocity draw ratio v_puller/v_melt at the nominal line speed. */
+  readonly velocityDrawRatio: number;
+  /** Mean melt speed in the orifice, m/s. */
+  readonly meltSpeedMPerS: number;
+  /** Puller speed that holds the target draw-down at this station, m/s. */
+  readonly pullerSpeedForTargetMPerS: number;
+  /** Thin-slit equivalent gap 2A/P, mm. */
+  readonly equivalentGapMm: number;
+  /** Estimated pressure drop across the die land at the equivalent gap, bar (power-law slit, isothermal). */
+  readonly landPressureBar: number;
+  /** Flow ratio thickest/thinnest wall at equal pressure, (H_max/H_min)^(2+1/n). */
+  readonly flowImbalanceRatio: number;
+  /** Thickest over thinnest wall. */
+  readonly wallRatio: number;
+}
+
+export interface ProcessCheck {
+  /** Mass throughput used for every station, kg/s. */
+  readonly throughputKgPerS: number;
+  /** True when the first station set the throughput at the target draw-down. */
+  readonly throughputFromFirstStation: boolean;
+  /** Middle of the draw-down range, the puller table's target. */
+  readonly targetDrawDown: number;
+  readonly stations: readonly StationProcess[];
+  readonly findings: readonly Finding[];
+}
+
+const PA_PER_BAR = 1e5;
+/** Upper end of the usual melt-pressure range (DOMAIN.md §4: often 70–350 bar). */
+const HIGH_LAND_PRESSURE_BAR = 350;
+/** Pressure swing between stations worth a warning: common practice, no source. */
+const PRESSURE_SWING_RATIO = 1.5;
+
+/**
+ * Mass balance, draw-down, slit-flow balance and pressure per station, with findings. Throughput is the schedule's,
+ * or the one that gives the first station the target draw-down at the nominal line speed.
+ *
+ * @param measures  one entry per station, in schedule order.
+ */
+export function checkProcess(schedule: Schedule, measures: readonly StationMeasures[]): ProcessCheck {
+  if (measures.length !== schedule.stations.length) throw new Error('checkProcess: one measure per station expected');
+  const { process: p, limits } = schedule;
+  const targetDrawDown = (limits.drawDownMin + limits.drawDownMax) / 2;
+  const first = measures[0];
+  const throughputKgPerS =
+    p.throughputKgPerS ??
+    (first ? throughputForDrawDown(first.areaMm2, targetDrawDown, p.solidDensityKgPerM3, p.lineSpeedMPerS) : 0);
+  const productArea = productAreaMm2(throughputKgPerS, p.solidDensityKgPerM3, p.lineSpeedMPerS);
+  const findings: Finding[] = [...materialFindings(schedule)];
+
+  const stations = measures.map((m, i): StationProcess => {
+    const station = schedule.stations[i]!;
+    const at = { station: i, positionM: station.positionM };
+    const adr = areaDrawDownRatio(m.areaMm2, productArea);
+    const equivalentGapMm = (2 * m.areaMm2) / m.perimeterMm;
+    const widthMm = m.perimeterMm / 2;
+    const qM2PerS = throughputKgPerS / p.meltDensityKgPerM3 / (widthMm / 1000);
+    const slit = { gapMm: equivalentGapMm, landMm: p.dieLandLengthMm, n: p.powerLawN, mPaSn: p.powerLawMPaSn };
+    const landPressureBar = slitPressureDropPa(slit, qM2PerS) / PA_PER_BAR;
+    const wallRatio = m.maxWallMm / m.minWallMm;
+    const flowImbalanceRatio = slitFlowRatioAtEqualPressure(m.maxWallMm, m.minWallMm, p.powerLawN);
+    const pullerSpeed = pullerSpeedForDrawDown(throughputKgPerS, p.solidDensityKgPerM3, m.areaMm2, targetDrawDown);
+
+    if (m.minWallMm < limits.minWallMm) {
+      const where = m.thinWalls[0]?.centroid ?? m.minWallAt;
+      findings.push({
+        code: 'THIN_WALL',
+        severity: 'error',
+        ...at,
+        value: m.minWallMm,
+        limit: limits.minWallMm,
+        at: where,
+        message: `A wall is ${fmt(m.minWallMm)} mm thin near (${fmt(where[0])}, ${fmt(where[1])}) mm, below the ${fmt(limits.minWallMm)} mm minimum (${m.thinWalls.length} thin place(s)). Thicken the wall there or lower the limit if the material allows it.`,
+      });
+    }
+    if (wallRatio > limits.maxWallRatio) {
+      findings.push({
+        code: 'WALL_RATIO',
+        severity: 'warning',
+        ...at,
+        value: wallRatio,
+        limit: limits.maxWallRatio,
+        message: `Thickest wall ${fmt(m.maxWallMm)} mm is ${fmt(wallRatio)}× the thinnest ${fmt(m.minWallMm)} mm; at equal pressure the thick wall flows about ${fmt(flowImbalanceRatio)}× faster per width (power-law slit, n ${fmt(p.powerLawN)}). Balance the die land or even out the walls.`,
+      });
+    }
+    if (adr < limits.drawDownMin || adr > limits.drawDownMax) {
+      const low = adr < limits.drawDownMin;
+      findings.push({
+        code: low ? 'DRAW_DOWN_LOW' : 'DRAW_DOWN_HIGH',
+        severity: 'warning',
+        ...at,
+        value: adr,
+        limit: low ? limits.drawDownMin : limits.drawDownMax,
+        message: `At the nominal line speed the area draw-down ratio is ${fmt(adr)}, ${low ? 'below' : 'above'} the ${fmt(low ? limits.drawDownMin : limits.drawDownMax)} limit. The puller-speed table holds ${fmt(targetDrawDown)} by running at ${fmt(pullerSpeed * 60)} m/min here; otherwise change the orifice area or the throughput.`,
+      });
+    }
+    if (landPressureBar > HIGH_LAND_PRESSURE_BAR) {
+      findings.push({
+        code: 'HIGH_LAND_PRESSURE',
+        severity: 'warning',
+        ...at,
+        value: landPressureBar,
+        limit: HIGH_LAND_PRESSURE_BAR,
+        message: `The die land alone needs about ${fmt(landPressureBar)} bar at this throughput (equivalent gap ${fmt(equivalentGapMm)} mm, land ${fmt(p.dieLandLengthMm)} mm), above the usual 350 bar. Check the extruder's pressure rating and rupture disc, shorten the land or lower the throughput.`,
+      });
+    }
+    return {
+      productAreaMm2: productArea,
+      drawDownRatio: adr,
+      velocityDrawRatio: velocityDrawRatio(adr, p.meltDensityKgPerM3, p.solidDensityKgPerM3),
+      meltSpeedMPerS: meltSpeedMPerS(throughputKgPerS, p.meltDensityKgPerM3, m.areaMm2),
+      pullerSpeedForTargetMPerS: pullerSpeed,
+      equivalentGapMm,
+      landPressureBar,
+      flowImbalanceRatio,
+      wallRatio,
+    };
+  });
+
+  findings.push(...pressureSwingFindings(schedule, stations));
+  return {
+    throughputKgPerS,
+    throughputFromFirstStation: p.throughputKgPerS === null,
+    targetDrawDown,
+    stations,
+    findings,
+  };
+}
+
+function pressureSwingFindings(schedule: Schedule, stations: readonly StationProcess[]): Finding[] {
+  if (stations.length < 2) return [];
+  let lo = 0;
+  let hi = 0;
+  stations.forEach((s, i) => {
+    if (s.landPressureBar < stations[lo]!.landPressureBar) lo = i;
+    if (s.landPressureBar > stations[hi]!.landPressureBar) hi = i;
+  });
+  const ratio = stations[hi]!.landPressureBar / stations[lo]!.landPressureBar;
+  if (!(ratio > PRESSURE_SWING_RATIO)) return [];
+  return [
+    {
+      code: 'PRESSURE_SWING',
+      severity: 'warning',
+      station: hi,
+      positionM: schedule.stations[hi]!.positionM,
+      value: ratio,
+      limit: PRESSURE_SWING_RATIO,
+      message: `Die pressure at station ${hi} is about ${fmt(ratio)}× that at station ${lo} at constant output: closing the orifice raises pressure steeply. Make sure the pressure interlock and rupture disc cover the highest value, and ramp the motion slowly enough for the melt pump or screw control to follow.`,
+    },
+  ];
+}
+
+function materialFindings(schedule: Schedule): Finding[] {
+  const findings: Finding[] = [];
+  const p = schedule.process;
+  if (schedule.material !== 'custom') {
+    const range = MATERIAL_PRESETS[schedule.material].solidDensityRange;
+    const rho = p.solidDensityKgPerM3 / 1000;
+    if (rho < range.min || rho > range.max) {
+      findings.push({
+        code: 'DENSITY_UNUSUAL',
+        severity: 'warning',
+        value: rho,
+        limit: rho < range.min ? range.min : range.max,
+        message: `Solid density ${fmt(rho)} g/cm³ lies outside the handbook range ${range.min}–${range.max} g/cm³ for ${schedule.material}. Check the resin data sheet; mass balance and puller speeds scale with it.`,
+      });
+    }
+  }
+  if (p.meltDensityKgPerM3 > p.solidDensityKgPerM3) {
+    findings.push({
+      code: 'MELT_DENSER_THAN_SOLID',
+      severity: 'warning',
+      value: p.meltDensityKgPerM3 / 1000,
+      limit: p.solidDensityKgPerM3 / 1000,
+      message:
+        'The melt density is above the solid density; polymers expand when they melt, so one of the two values is probably wrong.',
+    });
+  }
+  if (schedule.material === 'PVC-U' && p.dieTemperatureC > 210) {
+    findings.push({
+      code: 'PVC_TOO_HOT',
+      severity: 'warning',
+      value: p.dieTemperatureC,
+      limit: 210,
+      message: `Die temperature ${fmt(p.dieTemperatureC)} °C is above the usual 160–210 °C for PVC-U melt; PVC degrades and releases hydrogen chloride faster above 200 °C.`,
+    });
+  }
+  return findings;
+}
+
+/** Three significant decimals at most, for messages. */
+function fmt(x: number): string {
+  return Number.isFinite(x) ? String(Math.round(x * 1000) / 1000) : String(x);
+}

@@ -1,0 +1,1 @@
+export { processCautions } from './process-cautions.js';

@@ -1,0 +1,7 @@
+export {
+  type MovingSpan,
+  type MovingSpanResult,
+  type MovingSpanOptions,
+  findMovingSpans,
+} from './find-moving-spans.js';
+export { pointInRing, pointInRegion } from './point-in-region.js';

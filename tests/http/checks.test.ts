@@ -1,0 +1,197 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fixture, makeTestApp } from '../support/test-app.js';
+
+type App = Awaited<ReturnType<typeof makeTestApp>>;
+let app: App;
+beforeAll(async () => {
+  app = await makeTestApp();
+});
+afterAll(async () => {
+  await app.close();
+});
+
+const post = (body: unknown) =>
+  request(app.server).post('/v1/checks').set('content-type', 'application/json').send(JSON.stringify(body));
+
+describe('POST /v1/checks', () => {
+  it('measures every station of the demo schedule and carries the safety cautions', async () => {
+    const res = await post(fixture('demo-edging-strip'));
+    expect(res.status).toBe(200);
+    const stations = res.body.stations as Record<
+      'area_mm2' | 'perimeter_mm' | 'min_wall_mm' | 'max_wall_mm' | 'draw_down_ratio',
+      number
+    >[];
+    expect(stations).toHaveLength(4);
+    // the flat station is a 40 × 8 rectangle: area and perimeter by hand (analytic)
+    expect(stations[0]!.area_mm2).toBeCloseTo(320, 6);
+    expect(stations[0]!.perimeter_mm).toBeCloseTo(96, 6);
+    expect(stations[0]!.min_wall_mm).toBeCloseTo(8, 1);
+    expect(stations[0]!.max_wall_mm).toBeCloseTo(8, 1);
+    // crown y = 8 + 8 sin²(πx/40) adds ∫ 8 sin² dx over 0..40 = 160 mm² (analytic; the 1 mm polyline loses < 0.1 %)
+    expect(stations[1]!.area_mm2).toBeCloseTo(480, 0);
+    for (const key of ['area_mm2', 'perimeter_mm', 'min_wall_mm', 'max_wall_mm', 'draw_down_ratio'] as const) {
+      for (const s of stations) expect(Number.isFinite(s[key])).toBe(true);
+    }
+    // throughput from the first station at the middle of the draw-down range 1.0–1.3
+    expect(res.body.throughput_source).toBe('first_station');
+    expect(stations[0]!.draw_down_ratio).toBeCloseTo(1.15, 6);
+    // mass balance: ADR scales with orifice area at constant throughput and line speed
+    expect(stations[1]!.draw_down_ratio / stations[0]!.draw_down_ratio).toBeCloseTo(
+      stations[1]!.area_mm2 / stations[0]!.area_mm2,
+      4,
+    );
+    const codes = (res.body.cautions as { code: string; message: string }[]).map((c) => c.code);
+    expect(codes).toEqual(expect.arrayContaining(['HOT_MELT', 'MELT_PRESSURE', 'PINCH_AND_SHEAR', 'STORED_ENERGY']));
+    expect(codes).toContain('PVC_DECOMPOSITION');
+    for (const c of res.body.cautions) expect(c.message).toMatch(/local codes and plant practice/);
+    expect(res.headers['x-request-id']).toBeTruthy();
+  });
+
+  it('flags the thin fin with its location', async () => {
+    const res = await post(fixture('thin-wall'));
+    expect(res.status).toBe(200);
+    const thin = res.body.findings.find((f: { code: string }) => f.code === 'THIN_WALL');
+    expect(thin).toBeDefined();
+    expect(thin.severity).toBe('error');
+    expect(thin.value).toBeCloseTo(1.0, 1);
+    expect(thin.limit).toBe(1.5);
+    // the fin stands at x 19.5–20.5, y 6–12
+    expect(thin.at_mm[0]).toBeCloseTo(20, 0);
+    expect(thin.at_mm[1]).toBeGreaterThan(6);
+    expect(thin.at_mm[1]).toBeLessThan(12);
+    expect(res.body.stations[0].thin_walls).toHaveLength(1);
+  });
+
+  it('measures a hollow profile with its hole', async () => {
+    const res = await post(fixture('hollow-profile'));
+    expect(res.status).toBe(200);
+    // station 0: 40 × 12 less a 32 × 6 chamber = 480 − 192 = 288 mm²; perimeter 104 + 76 (analytic)
+    expect(res.body.stations[0].area_mm2).toBeCloseTo(288, 6);
+    expect(res.body.stations[0].perimeter_mm).toBeCloseTo(180, 6);
+    // thinnest wall: the 3 mm floor and top (12 − 9) around the chamber
+    expect(res.body.stations[0].min_wall_mm).toBeCloseTo(3, 1);
+    expect(res.body.stations[0].moving_span.length_mm).toBeCloseTo(40, 6);
+  });
+
+  it('flags draw-down out of range with the puller speed that would hold it', async () => {
+    const res = await post(fixture('draw-down-out-of-range'));
+    expect(res.status).toBe(200);
+    expect(res.body.throughput_source).toBe('request');
+    const high = res.body.findings.filter((f: { code: string }) => f.code === 'DRAW_DOWN_HIGH');
+    expect(high).toHaveLength(2);
+    // 14 kg/h at 2 m/min: product area = ṁ/(ρv) = (14/3600)/(1400·2/60) m² = 83.33 mm²; ADR = 320/83.33 = 3.84
+    expect(res.body.stations[0].draw_down_ratio).toBeCloseTo(3.84, 4);
+  });
+
+  it('reports stations whose die-body part disagrees', async () => {
+    const res = await post(fixture('fixed-part-disagrees'));
+    expect(res.status).toBe(200);
+    const f = res.body.findings.find((x: { code: string }) => x.code === 'SPAN_NOT_RECONCILED');
+    expect(f.severity).toBe('error');
+    expect(f.message).toMatch(/separate places/);
+    expect(res.body.stations[0].moving_span).toBeNull();
+  });
+
+  it('rejects a self-intersecting ring with the path of the ring', async () => {
+    const res = await post(fixture('self-intersecting'));
+    expect(res.status).toBe(400);
+    expect(res.body.error).toBe('invalid_schedule');
+    expect(res.body.details[0].path).toBe('stations[0].orifice.outer');
+    expect(res.body.details[0].message).toMatch(/crosses itself/);
+  });
+
+  it('rejects malformed JSON with 400 malformed_json', async () => {
+    const res = await request(app.server)
+      .post('/v1/checks')
+      .set('content-type', 'application/json')
+      .send('{"stations": [');
+    expect(res.status).toBe(400);
+    expect(res.body.error).toBe('malformed_json');
+  });
+
+  it('rejects a body without stations, naming the field', async () => {
+    const res = await post({ name: 'no stations' });
+    expect(res.status).toBe(400);
+    expect(res.body.error).toBe('invalid_schedule');
+    expect(res.body.details).toContainEqual({ path: 'stations', message: expect.stringMatching(/stations/) });
+  });
+
+  it('rejects a negative line speed and a NaN position with their paths', async () => {
+    const body = fixture('demo-edging-strip') as {
+      process: Record<string, unknown>;
+      stations: { position_m: unknown }[];
+    };
+    body.process.line_speed_m_per_min = -2;
+    body.stations[1]!.position_m = 'NaN';
+    const res = await post(body);
+    expect(res.status).toBe(400);
+    const paths = res.body.details.map((d: { path: string }) => d.path);
+    expect(paths).toContain('process.line_speed_m_per_min');
+    expect(paths).toContain('stations[1].position_m');
+    const speed = res.body.details.find((d: { path: string }) => d.path === 'process.line_speed_m_per_min');
+    expect(speed.message).toMatch(/greater than zero/);
+  });
+
+  it('rejects a point with a missing coordinate', async () => {
+    const res = await post({ stations: [{ position_m: 0, orifice: { outer: [[0, 0], [40], [40, 8]] } }] });
+    expect(res.status).toBe(400);
+    expect(res.body.details.some((d: { path: string }) => d.path.startsWith('stations[0].orifice.outer[1]'))).toBe(
+      true,
+    );
+  });
+
+  it('rejects stations out of order', async () => {
+    const body = fixture('demo-edging-strip') as { stations: { position_m: number }[] };
+    body.stations[2]!.position_m = 0.1;
+    const res = await post(body);
+    expect(res.status).toBe(400);
+    expect(res.body.details[0].path).toBe('stations[2].position_m');
+    expect(res.body.details[0].message).toMatch(/increasing line position/);
+  });
+
+  it('answers 413 to an oversized body', async () => {
+    const huge = JSON.stringify({ stations: [], padding: 'x'.repeat(6 * 1024 * 1024) });
+    const res = await request(app.server).post('/v1/checks').set('content-type', 'application/json').send(huge);
+    expect(res.status).toBe(413);
+    expect(res.body.error).toBe('body_too_large');
+  });
+
+  it('answers 415 to a body that is not JSON', async () => {
+    const res = await request(app.server).post('/v1/checks').set('content-type', 'text/plain').send('hello');
+    expect(res.status).toBe(415);
+  });
+});
+
+describe('service routes', () => {
+  it('GET /healthz answers ok', async () => {
+    const res = await request(app.server).get('/healthz');
+    expect(res.status).toBe(200);
+    expect(res.body.status).toBe('ok');
+  });
+
+  it('unknown routes answer 404 from the catalogue', async () => {
+    const res = await request(app.server).get('/v1/nothing-here');
+    expect(res.status).toBe(404);
+    expect(res.body.error).toBe('not_found');
+  });
+});
+
+describe('rate limit', () => {
+  it('answers 429 with Retry-After past the per-minute limit, and lets the client in again a minute later', async () => {
+    let now = 1_000_000;
+    const { buildApp } = await import('../../src/app.js');
+    const { pino } = await import('pino');
+    const limited = await buildApp({ logger: pino({ level: 'silent' }), rateLimitPerMinute: 2, now: () => now });
+    await limited.ready();
+    expect((await request(limited.server).get('/healthz')).status).toBe(200);
+    expect((await request(limited.server).get('/healthz')).status).toBe(200);
+    const third = await request(limited.server).get('/healthz');
+    expect(third.status).toBe(429);
+    expect(third.body.error).toBe('rate_limited');
+    expect(Number(third.headers['retry-after'])).toBeGreaterThan(0);
+    now += 60_000;
+    expect((await request(limited.server).get('/healthz')).status).toBe(200);
+    await limited.close();
+  });
+});
