@@ -1,0 +1,217 @@
+import { describe, expect, it } from 'vitest';
+import { DEFAULT_TOLERANCES as tol } from '../../src/numeric/index.js';
+import {
+  normalizeRegion,
+  normalizeRing,
+  type Point,
+  pointInRegion,
+  pointInRing,
+  signedRingArea,
+  validateRegion,
+} from '../../src/geometry/index.js';
+import { annulus, rectangle, reversed } from './shapes.js';
+
+describe('normalizeRing and normalizeRegion', () => {
+  it('normalizeRing drops repeated, collinear and closing points and turns the ring counter-clockwise', () => {
+    const messy: Point[] = [
+      [0, 0],
+      [0, 10],
+      [0, 10 + 1e-9],
+      [10, 10],
+      [10, 5],
+      [10, 0],
+      [5, 0],
+      [0, 0],
+    ];
+    // reference: the clockwise 10×10 square's four corners, re-ordered counter-clockwise from the first point
+    expect(normalizeRing(messy, tol)).toEqual([
+      [0, 0],
+      [10, 0],
+      [10, 10],
+      [0, 10],
+    ]);
+  });
+
+  it('normalizeRing removes a zero-width spike that folds back along an edge', () => {
+    const spiky: Point[] = [
+      [0, 0],
+      [10, 0],
+      [15, 0],
+      [10, 0],
+      [10, 10],
+      [0, 10],
+    ];
+    const ring = normalizeRing(spiky, tol);
+    // reference: the square without the spike to (15, 0)
+    expect(ring).toHaveLength(4);
+    expect(signedRingArea(ring)).toBeCloseTo(100, 12);
+  });
+
+  it('normalizeRing keeps points that deviate from the line by more than tol.lengthMm', () => {
+    const ring: Point[] = [
+      [0, 0],
+      [5, 2e-6],
+      [10, 0],
+      [10, 10],
+    ];
+    expect(normalizeRing(ring, tol)).toHaveLength(4);
+  });
+
+  it('normalizeRegion makes the outer ring counter-clockwise and holes clockwise', () => {
+    const region = normalizeRegion({ outer: reversed(rectangle(10, 10)), holes: [rectangle(2, 2, 4, 4)] }, tol);
+    expect(signedRingArea(region.outer)).toBeGreaterThan(0);
+    expect(signedRingArea(region.holes[0]!)).toBeLessThan(0);
+  });
+
+  it('normalizeRegion drops a hole that collapses to fewer than three points', () => {
+    const region = normalizeRegion(
+      {
+        outer: rectangle(10, 10),
+        holes: [
+          [
+            [2, 2],
+            [3, 3],
+            [4, 4],
+          ],
+        ],
+      },
+      tol,
+    );
+    expect(region.holes).toHaveLength(0);
+  });
+});
+
+describe('pointInRing and pointInRegion', () => {
+  it('pointInRing tells inside, outside and boundary of a square', () => {
+    const sq = rectangle(10, 10);
+    expect(pointInRing([5, 5], sq, tol)).toBe('inside');
+    expect(pointInRing([15, 5], sq, tol)).toBe('outside');
+    expect(pointInRing([10, 5], sq, tol)).toBe('boundary');
+  });
+
+  it('pointInRegion puts a point in the hole of an annulus outside the material', () => {
+    const ring = annulus(20, 10, 64);
+    expect(pointInRegion([0, 0], ring, tol)).toBe('outside');
+    expect(pointInRegion([15, 0], ring, tol)).toBe('inside');
+  });
+});
+
+describe('validateRegion', () => {
+  it('validateRegion(square) finds nothing wrong', () => {
+    expect(validateRegion({ outer: rectangle(10, 10), holes: [reversed(rectangle(2, 2, 4, 4))] }, tol)).toEqual([]);
+  });
+
+  it('validateRegion(bow-tie) reports a self-intersection at the crossing point (5, 5) between edges 0 and 2', () => {
+    const bowTie: Point[] = [
+      [0, 0],
+      [10, 10],
+      [10, 0],
+      [0, 10],
+    ];
+    const faults = validateRegion({ outer: bowTie, holes: [] }, tol);
+    expect(faults).toHaveLength(1);
+    const f = faults[0]!;
+    expect(f.kind).toBe('self-intersection');
+    expect(f.ring).toBe('outer');
+    // analytic: the diagonals of the 10×10 square cross at its centre
+    expect(f.at[0]).toBeCloseTo(5, 12);
+    expect(f.at[1]).toBeCloseTo(5, 12);
+    expect(f.edges).toEqual([0, 2]);
+    expect(f.message).toBe('The outer boundary crosses itself near (5.0, 5.0) mm, between edges 0 and 2.');
+  });
+
+  it('validateRegion reports a self-intersection in input edge numbers even with repeated points', () => {
+    const bowTie: Point[] = [
+      [0, 0],
+      [0, 0],
+      [10, 10],
+      [10, 0],
+      [0, 10],
+    ];
+    const faults = validateRegion({ outer: bowTie, holes: [] }, tol);
+    expect(faults.map((f) => f.edges)).toEqual([[1, 3]]);
+  });
+
+  it('validateRegion reports a hole outside the outer ring', () => {
+    const faults = validateRegion({ outer: rectangle(10, 10), holes: [reversed(rectangle(2, 2, 20, 20))] }, tol);
+    expect(faults).toHaveLength(1);
+    expect(faults[0]!.kind).toBe('hole-outside-outer');
+    expect(faults[0]!.ring).toBe(0);
+    expect(faults[0]!.message).toMatch(/^Hole 0 lies outside the outer boundary/);
+  });
+
+  it('validateRegion reports a hole crossing the outer ring where it crosses', () => {
+    const faults = validateRegion({ outer: rectangle(10, 10), holes: [reversed(rectangle(4, 2, 8, 4))] }, tol);
+    expect(faults).toHaveLength(1);
+    expect(faults[0]!.kind).toBe('hole-outside-outer');
+    // analytic: the hole's bottom edge y = 4 meets the outer edge x = 10 at (10, 4)
+    expect(faults[0]!.at[0]).toBeCloseTo(10, 12);
+    expect([4, 6]).toContain(faults[0]!.at[1]);
+  });
+
+  it('validateRegion reports overlapping and nested holes', () => {
+    const crossing = validateRegion(
+      { outer: rectangle(20, 20), holes: [rectangle(6, 6, 2, 2), rectangle(6, 6, 5, 5)] },
+      tol,
+    );
+    expect(crossing.map((f) => f.kind)).toEqual(['holes-overlap']);
+    const nested = validateRegion(
+      { outer: rectangle(20, 20), holes: [rectangle(10, 10, 2, 2), rectangle(2, 2, 5, 5)] },
+      tol,
+    );
+    expect(nested.map((f) => [f.kind, f.ring, f.otherRing])).toEqual([['holes-overlap', 1, 0]]);
+  });
+
+  it('validateRegion reports too few points, zero area and non-finite coordinates', () => {
+    const faults = validateRegion(
+      {
+        outer: [
+          [0, 0],
+          [5, 0],
+          [10, 0],
+        ],
+        holes: [
+          [
+            [1, 1],
+            [2, 2],
+          ],
+          [
+            [1, 1],
+            [Number.NaN, 2],
+            [2, 1],
+          ],
+        ],
+      },
+      tol,
+    );
+    expect(faults.map((f) => [f.kind, f.ring])).toEqual([
+      ['zero-area', 'outer'],
+      ['too-few-points', 0],
+      ['non-finite', 1],
+    ]);
+    expect(faults[2]!.vertex).toBe(1);
+  });
+
+  it('validateRegion reports an edge folding back over its neighbour', () => {
+    const ring: Point[] = [
+      [0, 0],
+      [10, 0],
+      [5, 0],
+      [5, 5],
+    ];
+    const faults = validateRegion({ outer: ring, holes: [] }, tol);
+    expect(faults.some((f) => f.kind === 'self-intersection')).toBe(true);
+  });
+
+  it('validateRegion checks a 4000-vertex profile in well under a second', () => {
+    const n = 4000;
+    const wavy: Point[] = Array.from({ length: n }, (_, i) => {
+      const a = (2 * Math.PI * i) / n;
+      const r = 20 + Math.sin(40 * a);
+      return [r * Math.cos(a), r * Math.sin(a)] as const;
+    });
+    const start = performance.now();
+    expect(validateRegion({ outer: wavy, holes: [] }, tol)).toEqual([]);
+    expect(performance.now() - start).toBeLessThan(1000);
+  });
+});
