@@ -1,0 +1,235 @@
+import { forwardDifferenceJacobian, type ParameterBox } from './least-squares-forward-difference.js';
+import { LeastSquaresNormalEquations } from './least-squares-normal-equations.js';
+import { type LeastSquaresOptions, resolveLeastSquaresOptions } from './least-squares-options.js';
+import type { LeastSquaresProblem, LeastSquaresResult, LeastSquaresStatus } from './least-squares-problem.js';
+
+export {
+  DEFAULT_LEAST_SQUARES_OPTIONS,
+  type LeastSquaresOptions,
+  resolveLeastSquaresOptions,
+} from './least-squares-options.js';
+export type {
+  JacobianSparsity,
+  LeastSquaresProblem,
+  LeastSquaresResult,
+  LeastSquaresStatus,
+} from './least-squares-problem.js';
+
+/**
+ * Minimises ½‖r(x)‖² from `x0` by Levenberg–Marquardt for m residuals in n parameters, optionally inside a box.
+ *
+ * Method (Madsen, Nielsen & Tingleff, *Methods for non-linear least squares problems*, 2nd ed., IMM, DTU, 2004,
+ * §3.2 and Algorithm 3.16 [numbering from memory]): each iteration solves (JᵀJ + λ·D)·h = −Jᵀr with Marquardt's
+ * scale D = diag(JᵀJ) (running maximum, Moré 1978) by Cholesky, projects x + h onto the box, and judges the step by
+ * the gain ratio ϱ = (F(x) − F(x + h)) / (L(0) − L(h)). An accepted step (ϱ > 0) lowers λ by Nielsen's factor
+ * max(1/3, 1 − (2ϱ − 1)³) and resets ν = 2; a rejected one raises λ by ν and doubles ν. A damped system that cannot
+ * be factored raises λ the same way. Bounds are handled by projection (projected LM, Kanzow, Yamashita & Fukushima,
+ * J. Comput. Appl. Math. 172 (2004) 375–397): parameters pressing against a bound are held out of the step, the
+ * rest are clipped to the box, and the gradient test uses the projected gradient.
+ *
+ * Stops with `converged` on the gradient, step or relative-cost test of `options`, or when λ passes `maxDamping`
+ * without any step lowering the cost; `max-iterations` at the cap; `singular` when the damped system cannot be
+ * factored at `maxDamping`; `diverged` when the residuals at the start or the Jacobian at an iterate are not finite
+ * (a non-finite trial point is only a rejected step). The result always carries status, reason, iterations and
+ * residual. `partialOptions` is completed by `resolveLeastSquaresOptions`, which documents every default.
+ *
+ * Cost per iteration: the Jacobian (analytic, or n residual evaluations by forward differences), O(m·n) to clear it
+ * (and to scan it for zeros without a `jacobianSparsity`), O(Σᵢ kᵢ²) ≈ O(m·k²) to form JᵀJ from k nonzeros per row,
+ * and O(Σⱼ wⱼ²) ≤ n³/6 per factorisation for envelope widths wⱼ of JᵀJ. Memory: m·n + 2·n² doubles, allocated once
+ * per call. Throws on programmer misuse: bad counts, `x0` of the wrong length or not finite, bounds of the wrong
+ * length or crossed, invalid options.
+ */
+export function solveLeastSquares(
+  problem: LeastSquaresProblem,
+  x0: Float64Array | readonly number[],
+  partialOptions: Partial<LeastSquaresOptions> = {},
+): LeastSquaresResult {
+  const options = resolveLeastSquaresOptions(partialOptions);
+  const n = problem.parameterCount;
+  const m = problem.residualCount;
+  const box: ParameterBox = { lower: options.lowerBounds, upper: options.upperBounds };
+  checkArguments(n, m, x0, box);
+  const normal = new LeastSquaresNormalEquations(n, m, problem.jacobianSparsity);
+  const jacobian = new Float64Array(m * n);
+  const work = problem.jacobian ? new Float64Array(0) : new Float64Array(m);
+  const step = new Float64Array(n);
+  let x = Float64Array.from(x0);
+  project(x, box);
+  let xTrial = new Float64Array(n);
+  let r = new Float64Array(m);
+  let rTrial = new Float64Array(m);
+  let iterations = 0;
+  let evaluations = 0;
+  let jacobianEvaluations = 0;
+
+  const finish = (status: LeastSquaresStatus, reason: string): LeastSquaresResult => {
+    let sumSquares = 0;
+    let maxAbs = 0;
+    for (let i = 0; i < m; i++) {
+      const ri = r[i]!;
+      sumSquares += ri * ri;
+      // NaN must win over any finite maximum.
+      if (!(Math.abs(ri) <= maxAbs)) maxAbs = Math.abs(ri);
+    }
+    return {
+      status,
+      reason,
+      x,
+      cost: 0.5 * sumSquares,
+      rmsResidual: Math.sqrt(sumSquares / m),
+      maxAbsResidual: maxAbs,
+      iterations,
+      evaluations,
+      jacobianEvaluations,
+    };
+  };
+  const jacobianAtX = (): boolean => {
+    jacobian.fill(0);
+    if (problem.jacobian) problem.jacobian(x, jacobian);
+    else evaluations += forwardDifferenceJacobian(problem, x, r, options.finiteDifferenceStep, box, jacobian, work);
+    jacobianEvaluations++;
+    return normal.form(jacobian, r);
+  };
+
+  problem.residuals(x, r);
+  evaluations++;
+  let cost = halfSquaredNorm(r);
+  if (!Number.isFinite(cost)) return finish('diverged', 'the residuals are not finite at the starting point');
+  if (!jacobianAtX()) return finish('diverged', 'the Jacobian is not finite at the starting point');
+
+  const { maxIterations, gradientTolerance, stepTolerance, costTolerance, maxDamping, pivotTolerance } = options;
+  let damping = options.initialDamping;
+  let growth = 2;
+  for (;;) {
+    const gradientNorm = fixActiveBounds(x, normal.gradient, box, normal.fixed);
+    if (gradientNorm <= gradientTolerance) {
+      return finish(
+        'converged',
+        `gradient ‖Jᵀr‖∞ = ${fmt(gradientNorm)} ≤ gradientTolerance ${fmt(gradientTolerance)}`,
+      );
+    }
+    if (iterations >= maxIterations) {
+      return finish(
+        'max-iterations',
+        `stopped at maxIterations ${maxIterations} with gradient ‖Jᵀr‖∞ = ${fmt(gradientNorm)} > ${fmt(gradientTolerance)}`,
+      );
+    }
+    iterations++;
+    for (;;) {
+      while (!normal.factorDamped(damping, pivotTolerance)) {
+        if (damping >= maxDamping) {
+          return finish('singular', `JᵀJ + λ·D cannot be factored even at damping λ = ${fmt(damping)} (maxDamping)`);
+        }
+        damping = Math.min(maxDamping, damping * growth);
+        growth *= 2;
+      }
+      normal.solveStep(step);
+      let stepSquared = 0;
+      let xSquared = 0;
+      for (let j = 0; j < n; j++) {
+        const xj = x[j]!;
+        xTrial[j] = clamp(xj + step[j]!, box.lower?.[j], box.upper?.[j]);
+        step[j] = xTrial[j]! - xj;
+        stepSquared += step[j]! * step[j]!;
+        xSquared += xj * xj;
+      }
+      const stepNorm = Math.sqrt(stepSquared);
+      const stepLimit = stepTolerance * (Math.sqrt(xSquared) + stepTolerance);
+      if (stepNorm <= stepLimit) {
+        return finish(
+          'converged',
+          `step ‖Δx‖ = ${fmt(stepNorm)} ≤ stepTolerance·(‖x‖ + stepTolerance) = ${fmt(stepLimit)}`,
+        );
+      }
+      const predicted = normal.predictedReduction(step);
+      problem.residuals(xTrial, rTrial);
+      evaluations++;
+      const trialCost = halfSquaredNorm(rTrial);
+      const actual = cost - trialCost;
+      if (actual > 0) {
+        const gain = predicted > 0 ? actual / predicted : 0;
+        damping = Math.max(Number.MIN_VALUE, damping * Math.max(1 / 3, 1 - (2 * gain - 1) ** 3));
+        growth = 2;
+        const costStalled = actual <= costTolerance * cost && predicted <= costTolerance * cost;
+        const previousCost = cost;
+        const xPrevious = x;
+        x = xTrial;
+        xTrial = xPrevious;
+        const rPrevious = r;
+        r = rTrial;
+        rTrial = rPrevious;
+        cost = trialCost;
+        if (costStalled) {
+          return finish(
+            'converged',
+            `cost fell by ${fmt(actual / previousCost)} of itself ≤ costTolerance ${fmt(costTolerance)}`,
+          );
+        }
+        if (!jacobianAtX()) return finish('diverged', `the Jacobian is not finite at iteration ${iterations}`);
+        break;
+      }
+      // A rejected step, including one to a point where the residuals are not finite: damp harder, same Jacobian.
+      if (damping >= maxDamping) {
+        return Number.isFinite(trialCost)
+          ? finish('converged', `no step lowers the cost: damping reached maxDamping ${fmt(maxDamping)}`)
+          : finish('diverged', `the residuals are not finite at any trial point, even at damping λ = ${fmt(damping)}`);
+      }
+      damping = Math.min(maxDamping, damping * growth);
+      growth *= 2;
+    }
+  }
+}
+
+function checkArguments(n: number, m: number, x0: Float64Array | readonly number[], box: ParameterBox): void {
+  if (!Number.isInteger(n) || n < 1) throw new Error(`solveLeastSquares: parameterCount must be ≥ 1, got ${n}`);
+  if (!Number.isInteger(m) || m < 1) throw new Error(`solveLeastSquares: residualCount must be ≥ 1, got ${m}`);
+  if (x0.length !== n) throw new Error(`solveLeastSquares: x0 has length ${x0.length}, expected ${n}`);
+  if (!x0.every(Number.isFinite)) throw new Error('solveLeastSquares: x0 must be finite');
+  const { lower, upper } = box;
+  if (lower && lower.length !== n) throw new Error(`solveLeastSquares: lowerBounds must have length ${n}`);
+  if (upper && upper.length !== n) throw new Error(`solveLeastSquares: upperBounds must have length ${n}`);
+  for (let j = 0; j < n; j++) {
+    const lo = lower?.[j] ?? Number.NEGATIVE_INFINITY;
+    const hi = upper?.[j] ?? Number.POSITIVE_INFINITY;
+    if (!(lo <= hi)) throw new Error(`solveLeastSquares: bounds of parameter ${j} are crossed or NaN`);
+  }
+}
+
+function project(x: Float64Array, box: ParameterBox): void {
+  for (let j = 0; j < x.length; j++) x[j] = clamp(x[j]!, box.lower?.[j], box.upper?.[j]);
+}
+
+function clamp(value: number, lower: number | undefined, upper: number | undefined): number {
+  if (lower !== undefined && value < lower) return lower;
+  if (upper !== undefined && value > upper) return upper;
+  return value;
+}
+
+/**
+ * Marks in `fixed` the parameters sitting on a bound that descent (−g) would push through, and returns ‖g‖∞ over the
+ * others: the norm of the projected gradient. Holding those parameters keeps the step from being spent against the
+ * bound (Bertsekas, SIAM J. Control Optim. 20(2) 1982, projected Newton with the active set held fixed).
+ */
+function fixActiveBounds(x: Float64Array, g: Float64Array, box: ParameterBox, fixed: Uint8Array): number {
+  let norm = 0;
+  for (let j = 0; j < x.length; j++) {
+    const gj = g[j]!;
+    const lower = box.lower?.[j];
+    const upper = box.upper?.[j];
+    const pressesLower = lower !== undefined && x[j]! <= lower && gj > 0;
+    const pressesUpper = upper !== undefined && x[j]! >= upper && gj < 0;
+    fixed[j] = pressesLower || pressesUpper ? 1 : 0;
+    if (fixed[j] === 0) norm = Math.max(norm, Math.abs(gj));
+  }
+  return norm;
+}
+
+function halfSquaredNorm(r: Float64Array): number {
+  let sum = 0;
+  for (let i = 0; i < r.length; i++) sum += r[i]! * r[i]!;
+  return 0.5 * sum;
+}
+
+function fmt(value: number): string {
+  return value.toExponential(3);
+}
