@@ -10,21 +10,37 @@ type P = [number, number];
 const round = (x: number) => Math.round(x * 1e4) / 1e4;
 
 /** A 40 mm wide solid strip on a flat base: top edge y(x) sampled every `step` mm, walls up to y(0) and y(40). */
-function strip(top: (x: number) => number, step = 1): { outer: P[]; holes: P[][] } {
+function strip(top: (x: number) => number, step = 0.5): { outer: P[]; holes: P[][] } {
   const outer: P[] = [
     [0, 0],
     [40, 0],
   ];
-  for (let x = 40; x >= -1e-9; x -= step) outer.push([round(x), round(top(x))]);
+  for (let x = 40; x >= -1e-9; x -= step) outer.push([round(x), round(top(Math.max(0, x)))]);
   return { outer, holes: [] };
 }
 
-const s2 = (x: number) => Math.sin(x) ** 2;
 const flat = () => 8;
-/** Single rounded crown, 16 mm high at the middle. */
-const crown = (x: number) => 8 + 8 * s2((Math.PI * x) / 40);
-/** Double crown: two humps of 15.5 mm with an 11 mm saddle between. */
-const doubleCrown = (x: number) => 8 + 6 * s2((2 * Math.PI * x) / 40) + 3 * s2((Math.PI * x) / 40);
+
+/** Height of the upper arc of radius r through (x0, y0) and (x1, y1) at x (the arc bulges upward). */
+function arcTop(x0: number, y0: number, x1: number, y1: number, r: number): (x: number) => number {
+  const mx = (x0 + x1) / 2;
+  const my = (y0 + y1) / 2;
+  const half = Math.hypot(x1 - x0, y1 - y0) / 2;
+  const d = Math.sqrt(r * r - half * half);
+  // the centre lies below the chord, on its perpendicular bisector
+  const nx = (y1 - y0) / (2 * half);
+  const ny = -(x1 - x0) / (2 * half);
+  const cx = mx + nx * d;
+  const cy = my + ny * d;
+  return (x) => cy + Math.sqrt(r * r - (x - cx) ** 2);
+}
+
+/** Single rounded crown: an arc of radius 30 mm from wall to wall, 15.6 mm high at the middle. */
+const crown = arcTop(0, 8, 40, 8, 30);
+/** Double crown: two arcs of radius 26 mm meeting in a valley at (20, 12); humps about 13.6 mm high. */
+const leftHump = arcTop(0, 8, 20, 12, 26);
+const rightHump = arcTop(20, 12, 40, 8, 26);
+const doubleCrown = (x: number) => (x <= 20 ? leftHump(x) : rightHump(x));
 
 const demo = {
   name: 'edging-strip-demo',
@@ -114,7 +130,7 @@ const hollowProfile = {
   moving_span: { start: [0, 12], end: [40, 12] },
   stations: [
     { position_m: 0, orifice: hollow(() => 12) },
-    { position_m: 0.5, orifice: hollow((x) => 12 + 4 * s2((Math.PI * x) / 40)) },
+    { position_m: 0.5, orifice: hollow(arcTop(0, 12, 40, 12, 40)) },
   ],
 };
 

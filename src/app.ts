@@ -13,6 +13,8 @@ import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './
 import { openapiInfo } from './http/build-openapi.js';
 import { RateLimiter } from './http/rate-limiter.js';
 import { checkRoutes } from './http/routes/checks.js';
+import { planRoutes } from './http/routes/plans.js';
+import { MemoryPlanStore, type PlanStore } from './store/index.js';
 import { healthRoutes } from './http/routes/health.js';
 import { WIRE_LIMITS } from './http/wire-limits.js';
 import { SERVICE_VERSION } from './version.js';
@@ -24,6 +26,8 @@ export interface AppOptions {
   readonly rateLimitPerMinute?: number;
   /** Clock for the rate limiter, ms. @default Date.now */
   readonly now?: () => number;
+  /** Where plans are kept. @default a MemoryPlanStore */
+  readonly store?: PlanStore;
 }
 
 /**
@@ -94,6 +98,7 @@ export async function buildApp(options: AppOptions) {
   await app.register(fastifySwagger, { openapi: openapiInfo(SERVICE_VERSION), transform: jsonSchemaTransform });
   await app.register(healthRoutes);
   await app.register(checkRoutes);
+  await app.register(planRoutes(options.store ?? new MemoryPlanStore(), () => new Date(options.now?.() ?? Date.now())));
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app;
 }

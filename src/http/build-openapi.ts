@@ -18,6 +18,7 @@ export function openapiInfo(version: string) {
     },
     tags: [
       { name: 'checks', description: 'profile and process checks' },
+      { name: 'plans', description: 'plate chain, mechanism and (later) motion plans' },
       { name: 'service', description: 'health and description' },
     ],
   };

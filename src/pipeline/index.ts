@@ -1,1 +1,3 @@
 export { type StationCheck, type ScheduleCheck, checkSchedule } from './check-schedule.js';
+export { type Plan, planSchedule } from './plan-schedule.js';
+export { type PlanMechanism, chainMechanism } from './chain-mechanism.js';

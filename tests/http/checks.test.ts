@@ -28,8 +28,10 @@ describe('POST /v1/checks', () => {
     expect(stations[0]!.perimeter_mm).toBeCloseTo(96, 6);
     expect(stations[0]!.min_wall_mm).toBeCloseTo(8, 1);
     expect(stations[0]!.max_wall_mm).toBeCloseTo(8, 1);
-    // crown y = 8 + 8 sin²(πx/40) adds ∫ 8 sin² dx over 0..40 = 160 mm² (analytic; the 1 mm polyline loses < 0.1 %)
-    expect(stations[1]!.area_mm2).toBeCloseTo(480, 0);
+    // the crown is an arc of radius 30 on the 40 mm chord: circular segment R²/2·(θ − sin θ), θ = 2·asin(20/30),
+    // = 209.56 mm² over the 320 mm² base (analytic; the 0.5 mm polyline loses about 0.06 mm²)
+    const theta = 2 * Math.asin(20 / 30);
+    expect(stations[1]!.area_mm2).toBeCloseTo(320 + (900 / 2) * (theta - Math.sin(theta)), 0);
     for (const key of ['area_mm2', 'perimeter_mm', 'min_wall_mm', 'max_wall_mm', 'draw_down_ratio'] as const) {
       for (const s of stations) expect(Number.isFinite(s[key])).toBe(true);
     }

@@ -1,0 +1,85 @@
+import { z } from 'zod';
+import { CautionWire, FindingWire } from './report-schema.js';
+
+const PointOut = z.tuple([z.number(), z.number()]);
+const RegionOut = z
+  .object({ outer: z.array(PointOut), holes: z.array(z.array(PointOut)) })
+  .describe('orifice in mm: outer ring counter-clockwise, holes clockwise');
+
+export const PlanAcceptedWire = z.object({
+  id: z.string(),
+  status: z.enum(['queued', 'running', 'done', 'failed']),
+});
+
+export const PlanStationWire = z.object({
+  index: z.number().int(),
+  position_m: z.number(),
+  target_orifice: RegionOut,
+  achieved_orifice: RegionOut.describe('computed from the plates at this station: opening − union(plates)'),
+  fit: z.object({
+    max_deviation_mm: z.number().describe('symmetric Hausdorff distance between target and achieved boundaries'),
+    area_error_pct: z.number().describe('(achieved − target) / target area'),
+    symmetric_difference_mm2: z.number().describe('area covered by exactly one of target and achieved'),
+    worst_target_mm: PointOut.describe('target point at the largest deviation'),
+    worst_achieved_mm: PointOut.describe('achieved point at the largest deviation'),
+  }),
+  plates: z
+    .array(z.object({ plate: z.string(), pivots_mm: z.tuple([PointOut, PointOut]) }))
+    .describe('each plate’s two pivots at this station'),
+});
+
+export const MechanismWire = z.object({
+  mobility: z.number().int().describe('Grübler–Kutzbach degrees of freedom'),
+  bodies: z.array(z.object({ id: z.string(), kind: z.enum(['die_body', 'plate', 'link']), layer: z.number().int() })),
+  joints: z.array(
+    z.object({
+      id: z.string(),
+      type: z.enum(['revolute', 'prismatic']),
+      bodies: z.tuple([z.string(), z.string()]),
+      station_positions: z.array(PointOut).describe('joint point in the die-body frame at each station, mm'),
+    }),
+  ),
+  actuators: z.array(
+    z.object({
+      id: z.string(),
+      joint: z.string(),
+      kind: z.enum(['rotary', 'linear']),
+      station_values: z.array(z.number()).describe('degrees (rotary) or mm (linear) at each station'),
+    }),
+  ),
+});
+
+export const ChainWire = z.object({
+  status: z.enum(['fitted', 'best-effort']),
+  plate_count: z.number().int(),
+  plate_lengths_mm: z.array(z.number()).describe('pivot-to-pivot length of each plate, the same in every station'),
+  edge_offset_mm: z.number().describe('e = pivot hole radius + ligament: pivot line to melt edge'),
+  start: z.object({ kind: z.enum(['pivot', 'slot']), travel_mm: z.array(z.number()).optional() }),
+  end: z.object({ kind: z.enum(['pivot', 'slot']), travel_mm: z.array(z.number()).optional() }),
+  solver: z.object({ status: z.string(), iterations: z.number().int(), reason: z.string() }),
+  attempts: z.array(
+    z.object({
+      plate_count: z.number().int(),
+      solver_status: z.string(),
+      iterations: z.number().int(),
+      max_sample_residual_mm: z.number().describe('largest |distance − e| over the span samples after the solve'),
+      closure_gap_mm: z.number().describe('largest gap between the last pivot and its end pin'),
+      max_deviation_mm: z.number().nullable(),
+    }),
+  ),
+});
+
+export const PlanWire = z.object({
+  id: z.string(),
+  name: z.string(),
+  status: z.enum(['queued', 'running', 'done', 'failed']),
+  error: z.string().optional(),
+  created_at: z.string(),
+  findings: z.array(FindingWire),
+  cautions: z.array(CautionWire),
+  stations: z.array(PlanStationWire),
+  chain: ChainWire.nullable(),
+  mechanism: MechanismWire.nullable(),
+});
+
+export type PlanReport = z.infer<typeof PlanWire>;

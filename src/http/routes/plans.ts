@@ -1,0 +1,82 @@
+import { randomUUID } from 'node:crypto';
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { z } from 'zod';
+import { planSchedule } from '../../pipeline/index.js';
+import type { PlanStore } from '../../store/index.js';
+import { errorBody } from '../error-catalogue.js';
+import { PlanAcceptedWire, PlanWire } from '../plan-schema.js';
+import { ErrorWire } from '../report-schema.js';
+import { ScheduleWire } from '../schedule-schema.js';
+import { toPlanReport } from '../to-plan-report.js';
+import { toSchedule } from '../to-schedule.js';
+
+/**
+ * `POST /v1/plans` and `GET /v1/plans/{id}`. The plan is computed before the answer (the job queue comes with the
+ * service work); the record is stored whole, so a failure leaves nothing half-written.
+ */
+export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyncZod {
+  return async (app) => {
+    app.post(
+      '/v1/plans',
+      {
+        schema: {
+          summary: 'Plan a schedule: check, fit the plate chain, build the mechanism',
+          tags: ['plans'],
+          body: ScheduleWire,
+          response: { 202: PlanAcceptedWire, 400: ErrorWire },
+        },
+      },
+      async (request, reply) => {
+        const mapped = toSchedule(request.body);
+        if (!mapped.ok) {
+          return reply.code(400).send({
+            ...errorBody(
+              'invalid_schedule',
+              'The schedule describes an orifice or a station order the die cannot make.',
+              mapped.problems,
+            ),
+            request_id: request.id,
+          });
+        }
+        if (mapped.schedule.stations.length < 2) {
+          return reply.code(400).send({
+            ...errorBody('invalid_schedule', 'A plan needs at least two stations.', [
+              { path: 'stations', message: 'a plan needs at least 2 stations: with one there is nothing to move' },
+            ]),
+            request_id: request.id,
+          });
+        }
+        const started = performance.now();
+        const plan = planSchedule(mapped.schedule);
+        const id = randomUUID();
+        store.put({ id, createdAt: now().toISOString(), schedule: mapped.schedule, plan });
+        request.log.info(
+          { plan: id, status: plan.status, plates: plan.fit?.plateCount, ms: Math.round(performance.now() - started) },
+          'plan computed',
+        );
+        return reply.code(202).header('location', `/v1/plans/${id}`).send({ id, status: plan.status });
+      },
+    );
+
+    app.get(
+      '/v1/plans/:id',
+      {
+        schema: {
+          summary: 'A plan with its stations, chain, mechanism, findings and cautions',
+          tags: ['plans'],
+          params: z.object({ id: z.string().describe('plan id from POST /v1/plans') }),
+          response: { 200: PlanWire, 404: ErrorWire },
+        },
+      },
+      async (request, reply) => {
+        const record = store.get(request.params.id);
+        if (!record) {
+          return reply
+            .code(404)
+            .send({ ...errorBody('not_found', `No plan with id ${request.params.id}.`), request_id: request.id });
+        }
+        return toPlanReport(record);
+      },
+    );
+  };
+}

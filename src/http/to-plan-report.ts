@@ -1,0 +1,84 @@
+import type { Region } from '../geometry/index.js';
+import type { PlanRecord } from '../store/index.js';
+import type { PlanReport } from './plan-schema.js';
+import { toCautionWire, toFindingWire } from './to-check-report.js';
+import { mm, pointMm, sig } from './wire-format.js';
+
+const regionMm = (r: Region) => ({ outer: r.outer.map(pointMm), holes: r.holes.map((h) => h.map(pointMm)) });
+
+/** Domain plan → wire report (CONTRACT.md `GET /v1/plans/{id}`). */
+export function toPlanReport(record: PlanRecord): PlanReport {
+  const { plan, schedule } = record;
+  const fit = plan.fit;
+  const stations = fit
+    ? fit.stations.map((s, i) => ({
+        index: i,
+        position_m: schedule.stations[i]!.positionM,
+        target_orifice: regionMm(s.targetOrifice),
+        achieved_orifice: regionMm(s.achievedOrifice),
+        fit: {
+          max_deviation_mm: mm(s.maxDeviationMm),
+          area_error_pct: sig(s.areaErrorPct),
+          symmetric_difference_mm2: mm(s.symmetricDifferenceMm2),
+          worst_target_mm: pointMm(s.worstTarget),
+          worst_achieved_mm: pointMm(s.worstAchieved),
+        },
+        plates: fit.chain.lengthsMm.map((_, k) => ({
+          plate: `plate_${k + 1}`,
+          pivots_mm: [pointMm(fit.chain.pivots[i]![k]!), pointMm(fit.chain.pivots[i]![k + 1]!)] as [
+            [number, number],
+            [number, number],
+          ],
+        })),
+      }))
+    : [];
+  const end = (e: NonNullable<typeof fit>['chain']['start']) =>
+    e.kind === 'pivot' ? { kind: 'pivot' as const } : { kind: 'slot' as const, travel_mm: e.travelMm.map(mm) };
+  return {
+    id: record.id,
+    name: schedule.name,
+    status: plan.status,
+    ...(plan.error ? { error: plan.error } : {}),
+    created_at: record.createdAt,
+    findings: plan.findings.map(toFindingWire),
+    cautions: plan.cautions.map(toCautionWire),
+    stations,
+    chain: fit
+      ? {
+          status: fit.status,
+          plate_count: fit.plateCount,
+          plate_lengths_mm: fit.chain.lengthsMm.map(mm),
+          edge_offset_mm: mm(fit.shape.edgeOffsetMm),
+          start: end(fit.chain.start),
+          end: end(fit.chain.end),
+          solver: fit.solver,
+          attempts: fit.attempts.map((a) => ({
+            plate_count: a.plateCount,
+            solver_status: a.solverStatus,
+            iterations: a.iterations,
+            max_sample_residual_mm: mm(a.maxSampleResidualMm),
+            closure_gap_mm: mm(a.closureGapMm),
+            max_deviation_mm: a.maxDeviationMm === null ? null : mm(a.maxDeviationMm),
+          })),
+        }
+      : null,
+    mechanism: plan.mechanism
+      ? {
+          mobility: plan.mechanism.mobility,
+          bodies: plan.mechanism.bodies.map((b) => ({ ...b })),
+          joints: plan.mechanism.joints.map((j) => ({
+            id: j.id,
+            type: j.type,
+            bodies: [j.bodies[0], j.bodies[1]] as [string, string],
+            station_positions: j.stationPositions.map(pointMm),
+          })),
+          actuators: plan.mechanism.actuators.map((a) => ({
+            id: a.id,
+            joint: a.joint,
+            kind: a.kind,
+            station_values: a.stationValues.map((v) => sig(v)),
+          })),
+        }
+      : null,
+  };
+}

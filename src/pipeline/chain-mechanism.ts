@@ -1,0 +1,90 @@
+import type { Finding } from '../domain/index.js';
+import type { Point } from '../geometry/index.js';
+import { type ChainEnd, type ChainFit, endPoint } from '../synthesis/index.js';
+
+/** The mechanism as the plan reports it: bodies, joints with their place at every station, actuators. */
+export interface PlanMechanism {
+  /** Grübler–Kutzbach mobility M = 3(n − 1) − 2·j₁ (every joint here is a lower pair). */
+  readonly mobility: number;
+  readonly bodies: readonly {
+    readonly id: string;
+    readonly kind: 'die_body' | 'plate' | 'link';
+    readonly layer: number;
+  }[];
+  readonly joints: readonly {
+    readonly id: string;
+    readonly type: 'revolute' | 'prismatic';
+    readonly bodies: readonly [string, string];
+    /** Joint point in the die-body frame at each station, mm. */
+    readonly stationPositions: readonly Point[];
+  }[];
+  readonly actuators: readonly {
+    readonly id: string;
+    readonly joint: string;
+    readonly kind: 'rotary' | 'linear';
+    /** Degrees (rotary) or mm (linear) at each station. */
+    readonly stationValues: readonly number[];
+  }[];
+  readonly findings: readonly Finding[];
+}
+
+/**
+ * The fitted chain as a mechanism: the die body, one body per plate (alternating layers 1 and 2, so neighbours
+ * overlap at their pivots), a slider block for a slotted end, revolute joints at every pivot and a prismatic joint
+ * for a slot. No actuators yet: choosing binary links and actuators is the mechanisation stage; until then the plan
+ * says how many degrees of freedom remain.
+ */
+export function chainMechanism(fit: ChainFit): PlanMechanism {
+  const n = fit.plateCount;
+  const stations = fit.chain.pivots.length;
+  const bodies: PlanMechanism['bodies'][number][] = [{ id: 'die_body', kind: 'die_body', layer: 0 }];
+  for (let k = 1; k <= n; k++) bodies.push({ id: `plate_${k}`, kind: 'plate', layer: k % 2 === 1 ? 1 : 2 });
+  const joints: PlanMechanism['joints'][number][] = [];
+  const pivotAt = (k: number) => fit.chain.pivots.map((p) => p[k]!);
+
+  const attachEnd = (end: ChainEnd, which: 'start' | 'end', plate: string, pivotIndex: number) => {
+    if (end.kind === 'pivot') {
+      joints.push({
+        id: `pivot_${pivotIndex}`,
+        type: 'revolute',
+        bodies: ['die_body', plate],
+        stationPositions: pivotAt(pivotIndex),
+      });
+      return;
+    }
+    const slider = `slider_${which}`;
+    bodies.push({ id: slider, kind: 'link', layer: 3 });
+    joints.push({
+      id: `pivot_${pivotIndex}`,
+      type: 'revolute',
+      bodies: [slider, plate],
+      stationPositions: pivotAt(pivotIndex),
+    });
+    joints.push({
+      id: `slot_${which}`,
+      type: 'prismatic',
+      bodies: ['die_body', slider],
+      stationPositions: Array.from({ length: stations }, (_, i) => endPoint(end, i)),
+    });
+  };
+  attachEnd(fit.chain.start, 'start', 'plate_1', 0);
+  for (let k = 1; k < n; k++) {
+    joints.push({
+      id: `pivot_${k}`,
+      type: 'revolute',
+      bodies: [`plate_${k}`, `plate_${k + 1}`],
+      stationPositions: pivotAt(k),
+    });
+  }
+  attachEnd(fit.chain.end, 'end', `plate_${n}`, n);
+  const mobility = 3 * (bodies.length - 1) - 2 * joints.length;
+  const findings: Finding[] = [
+    {
+      code: 'ACTUATORS_NOT_ASSIGNED',
+      severity: 'info',
+      value: mobility,
+      message: `The fitted chain has ${mobility} degree(s) of freedom; binary links and actuators that drive it through every station are chosen by the mechanisation stage, which this plan does not include yet.`,
+    },
+  ];
+  return { mobility, bodies, joints, actuators: [], findings };
+}

@@ -1,0 +1,1 @@
+export { type PlanRecord, type PlanStore, MemoryPlanStore } from './plan-store.js';

@@ -1,0 +1,21 @@
+export { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
+export { type ChainEnd, type PlateChain, endPoint } from './plate-chain.js';
+export { type PlateShape, plateOutline } from './plate-outline.js';
+export { dieOpening, achievedOrifice } from './achieved-orifice.js';
+export { type MarchResult, marchChain, equalArcPivots } from './march-chain.js';
+export {
+  type ChainProblemSpec,
+  type ChainLayout,
+  type EndKind,
+  chainLayout,
+  makeChainProblem,
+  chainFromParameters,
+} from './chain-problem.js';
+export {
+  type ChainFitOptions,
+  type StationFit,
+  type FitAttempt,
+  type ChainFit,
+  resolveChainFitOptions,
+  fitChain,
+} from './fit-chain.js';
