@@ -7,8 +7,8 @@ export type EndKind = 'pivot' | 'slot';
 /**
  * The chain fit as a least-squares problem (Murray, Schmiedeler & Korte, J. Mech. Des. 130(3) 032302, 2008: common
  * pivot-to-pivot lengths, per-station configurations). Unknowns, in order:
- *   start end: pivot (x, y) | slot (x, y, ψ, travel per station);  end end: the same;
- *   plate lengths L_k (common);  plate angles θ_k,i (per station).
+ *   plate angles θ_k,i (per station);  plate lengths L_k (common);
+ *   start end: pivot (x, y) | slot (x, y, ψ, travel per station);  end end: the same.
  * Station i's pivots: P_0 = start pin, P_k = P_{k−1} + L_k·(cos θ_k,i, sin θ_k,i).
  * Residuals: for every span sample q, dist(q, pivot polyline) − e (zero when q lies on the plates' swollen melt edge,
  * DOMAIN.md §2); W·(P_N − end pin) per station (closure); weak ties of each end's position to its start value (they
@@ -55,10 +55,12 @@ export function chainLayout(spec: ChainProblemSpec): ChainLayout {
   const n = spec.plateCount;
   const startSize = spec.startKind === 'pivot' ? 2 : 3 + s;
   const endSize = spec.endKind === 'pivot' ? 2 : 3 + s;
-  const start = 0;
+  // per-station angles first, shared unknowns last: JᵀJ is then block-diagonal with a dense border, and the envelope
+  // Cholesky does little more than the blocks
+  const angles = 0;
+  const lengths = angles + n * s;
+  const start = lengths + n;
   const end = start + startSize;
-  const lengths = end + endSize;
-  const angles = lengths + n;
   const sampleCount = spec.samples.reduce((k, q) => k + q.length, 0);
   return {
     stationCount: s,
@@ -69,7 +71,7 @@ export function chainLayout(spec: ChainProblemSpec): ChainLayout {
     endSize,
     lengths,
     angles,
-    parameterCount: angles + n * s,
+    parameterCount: end + endSize,
     residualCount: sampleCount + 2 * s + 4,
   };
 }
