@@ -56,10 +56,14 @@ export const ChainWire = z.object({
   edge_offset_mm: z.number().describe('e = pivot hole radius + ligament: pivot line to melt edge'),
   start: z.object({ kind: z.enum(['pivot', 'slot']), travel_mm: z.array(z.number()).optional() }),
   end: z.object({ kind: z.enum(['pivot', 'slot']), travel_mm: z.array(z.number()).optional() }),
+  telescoping: z
+    .array(z.object({ plate: z.string(), station_lengths_mm: z.array(z.number()), stroke_mm: z.number() }))
+    .describe('plates whose pivot-to-pivot length changes between stations (a pair sliding on a prismatic joint)'),
   solver: z.object({ status: z.string(), iterations: z.number().int(), reason: z.string() }),
   attempts: z.array(
     z.object({
       plate_count: z.number().int(),
+      form: z.string().describe('pinned, slot at start/end, or telescoping plate k'),
       solver_status: z.string(),
       iterations: z.number().int(),
       max_sample_residual_mm: z.number().describe('largest |distance − e| over the span samples after the solve'),

@@ -51,9 +51,15 @@ export function toPlanReport(record: PlanRecord): PlanReport {
           edge_offset_mm: mm(fit.shape.edgeOffsetMm),
           start: end(fit.chain.start),
           end: end(fit.chain.end),
+          telescoping: fit.chain.telescoping.map((t) => ({
+            plate: `plate_${t.plate + 1}`,
+            station_lengths_mm: t.stationLengthsMm.map(mm),
+            stroke_mm: mm(Math.max(...t.stationLengthsMm) - Math.min(...t.stationLengthsMm)),
+          })),
           solver: fit.solver,
           attempts: fit.attempts.map((a) => ({
             plate_count: a.plateCount,
+            form: a.form,
             solver_status: a.solverStatus,
             iterations: a.iterations,
             max_sample_residual_mm: mm(a.maxSampleResidualMm),

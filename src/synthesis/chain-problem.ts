@@ -35,6 +35,12 @@ export interface ChainProblemSpec {
    * absent for plain least squares.
    */
   readonly emphasisMm?: number;
+  /**
+   * Plates whose length may change from station to station (a telescoping plate pair: two plates joined by a
+   * prismatic joint; Shamsudin et al., Mech. Mach. Theory 70, 2013). Each gets its own length per station; its common
+   * length is tied to their mean. @default none
+   */
+  readonly telescoping?: readonly number[];
 }
 
 export interface ChainLayout {
@@ -46,8 +52,24 @@ export interface ChainLayout {
   readonly endSize: number;
   readonly lengths: number;
   readonly angles: number;
+  /** First per-station length of a telescoping plate: plate `telescoping[t]` at station i is at
+   * `extensions + t·stationCount + i`. */
+  readonly extensions: number;
+  readonly telescoping: readonly number[];
   readonly parameterCount: number;
   readonly residualCount: number;
+}
+
+/** Parameter index of telescoping plate k's length at station i, or −1 when plate k is rigid. */
+export function extensionIndex(layout: ChainLayout, k: number, station: number): number {
+  const t = layout.telescoping.indexOf(k);
+  return t < 0 ? -1 : layout.extensions + t * layout.stationCount + station;
+}
+
+/** Pivot-to-pivot length of plate k at station i, mm. */
+export function plateLength(x: Float64Array, layout: ChainLayout, k: number, station: number): number {
+  const ext = extensionIndex(layout, k, station);
+  return ext < 0 ? x[layout.lengths + k]! : x[ext]!;
 }
 
 export function chainLayout(spec: ChainProblemSpec): ChainLayout {
@@ -61,6 +83,8 @@ export function chainLayout(spec: ChainProblemSpec): ChainLayout {
   const lengths = angles + n * s;
   const start = lengths + n;
   const end = start + startSize;
+  const telescoping = [...(spec.telescoping ?? [])];
+  const extensions = end + endSize;
   const sampleCount = spec.samples.reduce((k, q) => k + q.length, 0);
   return {
     stationCount: s,
@@ -71,8 +95,10 @@ export function chainLayout(spec: ChainProblemSpec): ChainLayout {
     endSize,
     lengths,
     angles,
-    parameterCount: end + endSize,
-    residualCount: sampleCount + 2 * s + 4,
+    extensions,
+    telescoping,
+    parameterCount: extensions + telescoping.length * s,
+    residualCount: sampleCount + 2 * s + 4 + telescoping.length,
   };
 }
 
@@ -121,7 +147,7 @@ export function stationPivots(
   py[0] = p0[1];
   const n = layout.plateCount;
   for (let k = 0; k < n; k++) {
-    const len = x[layout.lengths + k]!;
+    const len = plateLength(x, layout, k, station);
     const th = x[layout.angles + station * n + k]!;
     px[k + 1] = px[k]! + len * Math.cos(th);
     py[k + 1] = py[k]! + len * Math.sin(th);
@@ -152,7 +178,7 @@ export function makeChainProblem(spec: ChainProblemSpec) {
       const dy = py[k + 1]! - ay;
       const l2 = dx * dx + dy * dy;
       let t = l2 > 0 ? ((qx - ax) * dx + (qy - ay) * dy) / l2 : 0;
-      t = t < 0 ? 0 : t > 1 ? 1 : t;
+      t = t < 0 ? 0 : Math.min(t, 1);
       const ex = ax + t * dx - qx;
       const ey = ay + t * dy - qy;
       const d2 = ex * ex + ey * ey;
@@ -181,6 +207,12 @@ export function makeChainProblem(spec: ChainProblemSpec) {
     r[row++] = wa * (x[layout.start + 1]! - spec.startAnchor[1]);
     r[row++] = wa * (x[layout.end]! - spec.endAnchor[0]);
     r[row++] = wa * (x[layout.end + 1]! - spec.endAnchor[1]);
+    // a telescoping plate's common length is the mean of its station lengths
+    for (let t = 0; t < layout.telescoping.length; t++) {
+      let mean = 0;
+      for (let i = 0; i < layout.stationCount; i++) mean += x[layout.extensions + t * layout.stationCount + i]!;
+      r[row++] = x[layout.lengths + layout.telescoping[t]!]! - mean / layout.stationCount;
+    }
   };
 
   const jacobian = (x: Float64Array, jac: Float64Array): void => {
@@ -211,11 +243,12 @@ export function makeChainProblem(spec: ChainProblemSpec) {
         for (let j = 0; j <= k; j++) {
           const gx = j < k ? gax + gbx : gbx;
           const gy = j < k ? gay + gby : gby;
-          const len = x[layout.lengths + j]!;
+          const len = plateLength(x, layout, j, i);
           const th = x[angleBase + j]!;
           const c = Math.cos(th);
           const s = Math.sin(th);
-          jac[ro + layout.lengths + j] = c * gx + s * gy;
+          const ext = extensionIndex(layout, j, i);
+          jac[ro + (ext >= 0 ? ext : layout.lengths + j)] = c * gx + s * gy;
           jac[ro + angleBase + j] = len * (-s * gx + c * gy);
         }
       }
@@ -227,11 +260,12 @@ export function makeChainProblem(spec: ChainProblemSpec) {
         addPinGradient(jac, ro, x, layout.start, spec.startKind, i, gx, gy);
         addPinGradient(jac, ro, x, layout.end, spec.endKind, i, -gx, -gy);
         for (let j = 0; j < n; j++) {
-          const len = x[layout.lengths + j]!;
+          const len = plateLength(x, layout, j, i);
           const th = x[angleBase + j]!;
           const c = Math.cos(th);
           const s = Math.sin(th);
-          jac[ro + layout.lengths + j] = c * gx + s * gy;
+          const ext = extensionIndex(layout, j, i);
+          jac[ro + (ext >= 0 ? ext : layout.lengths + j)] = c * gx + s * gy;
           jac[ro + angleBase + j] = len * (-s * gx + c * gy);
         }
       }
@@ -240,6 +274,13 @@ export function makeChainProblem(spec: ChainProblemSpec) {
     jac[row++ * cols + layout.start + 1] = wa;
     jac[row++ * cols + layout.end] = wa;
     jac[row++ * cols + layout.end + 1] = wa;
+    for (let t = 0; t < layout.telescoping.length; t++) {
+      const ro = row++ * cols;
+      jac[ro + layout.lengths + layout.telescoping[t]!] = 1;
+      for (let i = 0; i < layout.stationCount; i++) {
+        jac[ro + layout.extensions + t * layout.stationCount + i] = -1 / layout.stationCount;
+      }
+    }
   };
 
   return { layout, residuals, jacobian };
@@ -258,12 +299,11 @@ export function chainFromParameters(x: Float64Array, spec: ChainProblemSpec): Pl
     for (let k = 0; k <= n; k++) row.push([px[k]!, py[k]!]);
     pivots.push(row);
   }
-  const readEnd = (offset: number, kind: EndKind, station: number): ChainEnd => {
+  const readEnd = (offset: number, kind: EndKind): ChainEnd => {
     if (kind === 'pivot') return { kind: 'pivot', point: [x[offset]!, x[offset + 1]!] };
     const psi = x[offset + 2]!;
     const travel: number[] = [];
     for (let i = 0; i < layout.stationCount; i++) travel.push(x[offset + 3 + i]!);
-    void station;
     return {
       kind: 'slot',
       origin: [x[offset]!, x[offset + 1]!],
@@ -275,8 +315,12 @@ export function chainFromParameters(x: Float64Array, spec: ChainProblemSpec): Pl
   // parameters (the fit report shows the closure gap)
   return {
     lengthsMm: Array.from(x.subarray(layout.lengths, layout.lengths + n)),
-    start: readEnd(layout.start, spec.startKind, 0),
-    end: readEnd(layout.end, spec.endKind, 0),
+    start: readEnd(layout.start, spec.startKind),
+    end: readEnd(layout.end, spec.endKind),
     pivots,
+    telescoping: layout.telescoping.map((plate) => ({
+      plate,
+      stationLengthsMm: Array.from({ length: layout.stationCount }, (_, i) => plateLength(x, layout, plate, i)),
+    })),
   };
 }

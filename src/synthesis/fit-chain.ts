@@ -15,6 +15,7 @@ import {
   chainFromParameters,
   chainLayout,
   type EndKind,
+  extensionIndex,
   makeChainProblem,
 } from './chain-problem.js';
 import { equalArcPivots, marchChain } from './march-chain.js';
@@ -39,6 +40,24 @@ export interface ChainFitOptions {
   readonly maxIterations: number;
   /** Fit exactly this many plates instead of searching for the fewest. @default null */
   readonly plateCount: number | null;
+  /** May an end pin run in a slot when pinned ends cannot follow the stations? @default true */
+  readonly allowSlots: boolean;
+  /** May one plate telescope when neither pinned nor slotted ends can? @default true */
+  readonly allowTelescoping: boolean;
+}
+
+function describeForm(spec: ChainProblemSpec): string {
+  if (spec.startKind === 'slot') return 'slot at start';
+  if (spec.endKind === 'slot') return 'slot at end';
+  const t = spec.telescoping ?? [];
+  return t.length > 0 ? `telescoping plate ${t.map((k) => k + 1).join(', ')}` : 'pinned';
+}
+
+/** How the chain is held and which plate, if any, telescopes. */
+interface ChainForm {
+  readonly startKind: EndKind;
+  readonly endKind: EndKind;
+  readonly telescoping: readonly number[];
 }
 
 export function resolveChainFitOptions(
@@ -50,6 +69,8 @@ export function resolveChainFitOptions(
     sampleSpacingMm: 0.5,
     maxIterations: 60,
     plateCount: null,
+    allowSlots: true,
+    allowTelescoping: true,
     ...partial,
   };
 }
@@ -73,6 +94,8 @@ export interface StationFit {
 /** One plate count tried, for the report. */
 export interface FitAttempt {
   readonly plateCount: number;
+  /** How the chain was held: `pinned`, `slot at start`, `slot at end`, `telescoping plate k` (1-based). */
+  readonly form: string;
   readonly solverStatus: LeastSquaresResult['status'];
   readonly iterations: number;
   /** Largest |distance − e| over the span samples after the solve, mm. */
@@ -138,8 +161,17 @@ export function fitChain(
     options.maxPlates,
   );
   const estimate = options.plateCount ?? Math.max(1, Math.min(options.maxPlates, march.lengthsMm.length));
+  // marching overestimates where stations bend at different places: the scan starts a little below it
+  const lowest = options.plateCount ?? Math.max(1, estimate - 2);
   type Solved = ReturnType<typeof refineChain>;
-  const fromScratch = (n: number, ends: { startKind: EndKind; endKind: EndKind }): Solved => {
+  const fromScratch = (n: number, form: ChainForm): Solved => {
+    // a telescoping plate keeps its place along the chain when the plate count changes
+    const ends: ChainForm = {
+      ...form,
+      telescoping: form.telescoping.map((k) =>
+        Math.min(n - 2, Math.max(1, Math.round(((k + 0.5) * n) / lowest - 0.5))),
+      ),
+    };
     const start = initialChain(targets, samples, n, ends, e, options, null);
     let best = refineChain(start.x, start.spec, options);
     if (n === march.lengthsMm.length && best.result.maxAbsResidual > options.toleranceMm) {
@@ -149,90 +181,75 @@ export function fitChain(
     }
     return best;
   };
-  // ends: pinned at both ends unless only a sliding end meets the tolerance (the end whose tangent changes least
-  // between stations then runs in a slot along it); a slot adds a freedom that a pinned fit does not need, so pinned
-  // wins whenever it is good enough
-  const pinned = { startKind: 'pivot' as EndKind, endKind: 'pivot' as EndKind };
-  let ends = pinned;
-  const slotted = slotEnd(targets);
-  const solved = new Map<number, Solved>();
-  /** Solutions found from scratch while choosing the ends, offered again when the scan reaches their count. */
-  const scratch = new Map<number, Solved>();
-  const firstPinned = fromScratch(estimate, pinned);
-  scratch.set(estimate, firstPinned);
-  if (slotted && firstPinned.result.maxAbsResidual > options.toleranceMm) {
-    const firstSlotted = fromScratch(estimate, slotted);
-    if (firstSlotted.result.maxAbsResidual < firstPinned.result.maxAbsResidual) {
-      ends = slotted;
-      scratch.set(estimate, firstSlotted);
-    }
+  // how the chain is held: pinned at both ends; one end in a slot (the end whose tangent changes least between
+  // stations, along it); or pinned with one telescoping plate (tried where the stations' chords differ most). The
+  // forms are scanned together from the lowest plate count up, each count continuing from that form's chain one plate
+  // shorter; the first count at which a form passes the exact check wins, and at equal counts the simpler form wins
+  // (a slot or a telescoping pair is hardware a pinned chain does not need).
+  const pinned: ChainForm = { startKind: 'pivot', endKind: 'pivot', telescoping: [] };
+  const forms: ChainForm[] = [pinned];
+  const slotted = options.allowSlots ? slotEnd(targets) : null;
+  if (slotted) forms.push({ ...slotted, telescoping: [] });
+  if (options.allowTelescoping && targets.length > 1 && lowest >= 3) {
+    for (const k of telescopingCandidates(targets, lowest).slice(0, 3)) forms.push({ ...pinned, telescoping: [k] });
   }
-  const { startKind, endKind } = ends;
 
+  interface Candidate {
+    readonly form: ChainForm;
+    readonly solved: Solved;
+    readonly miss: { sampleMm: number; closureMm: number };
+    evaluation: ReturnType<typeof evaluateChain> | null;
+  }
   const attempts: FitAttempt[] = [];
-  const solveFor = (n: number): Solved => {
-    let entry = solved.get(n);
-    if (!entry) {
-      // continue from the chain with one plate fewer when there is one: it can only get better
-      const fewer = solved.get(n - 1);
-      const split = fewer ? splitWorstPlate(fewer.x, fewer.spec, options) : null;
-      entry = split ? refineChain(split.x, split.spec, options) : (scratch.get(n) ?? fromScratch(n, ends));
-      const early = scratch.get(n);
-      if (early && early.result.cost < entry.result.cost) entry = early;
-      solved.set(n, entry);
+  const judge = (form: ChainForm, solved: Solved): Candidate => {
+    const miss = chainMiss(solved.x, solved.spec);
+    const candidate: Candidate = { form, solved, miss, evaluation: null };
+    // samples can pass while plate bodies or round ends miss between them: the exact check has the last word
+    if (miss.sampleMm <= options.toleranceMm && miss.closureMm <= CLOSURE_LIMIT_MM) {
+      candidate.evaluation = evaluateChain(chainFromParameters(solved.x, solved.spec), orifices, openings, shape);
     }
-    return entry;
-  };
-  const evaluated = new Map<number, { fits: StationFit[]; plates: Region[][]; worst: number }>();
-  const evaluate = (n: number) => {
-    let ev = evaluated.get(n);
-    if (!ev) {
-      const { x, spec } = solveFor(n);
-      ev = evaluateChain(chainFromParameters(x, spec), orifices, openings, shape);
-      evaluated.set(n, ev);
-    }
-    return ev;
-  };
-  const passes = (n: number): boolean => {
-    const { result, x, spec } = solveFor(n);
-    const miss = chainMiss(x, spec);
-    const closes = miss.closureMm <= CLOSURE_LIMIT_MM;
-    const exact = miss.sampleMm <= options.toleranceMm && closes ? evaluate(n).worst : null;
     attempts.push({
-      plateCount: n,
-      solverStatus: result.status,
-      iterations: result.iterations,
+      plateCount: solved.spec.plateCount,
+      form: describeForm(solved.spec),
+      solverStatus: solved.result.status,
+      iterations: solved.result.iterations,
       maxSampleResidualMm: miss.sampleMm,
       closureGapMm: miss.closureMm,
-      maxDeviationMm: exact,
+      maxDeviationMm: candidate.evaluation?.worst ?? null,
     });
-    return exact !== null && exact <= options.toleranceMm;
+    return candidate;
   };
+  const passes = (c: Candidate) => c.evaluation !== null && c.evaluation.worst <= options.toleranceMm;
+  /** How far a candidate is from passing, for choosing the best effort. */
+  const distance = (c: Candidate) =>
+    c.evaluation?.worst ?? (c.miss.closureMm <= CLOSURE_LIMIT_MM ? c.miss.sampleMm : Number.POSITIVE_INFINITY);
 
-  // search: marching overestimates where stations bend at different places, so scan upward from a few plates below
-  // its estimate and take the first count that passes the exact check
-  let chosen: number | null = null;
-  if (options.plateCount !== null) {
-    chosen = passes(estimate) ? estimate : null;
-  } else {
-    const lowest = Math.max(1, estimate - 3);
-    for (let n = lowest; n <= options.maxPlates; n++) {
-      if (passes(n)) {
-        chosen = n;
-        break;
-      }
-    }
+  let live: Candidate[] = forms.map((form) => judge(form, fromScratch(lowest, form)));
+  let best = live.reduce((a, b) => (distance(b) < distance(a) ? b : a));
+  let winner = live.find(passes) ?? null;
+  // of several telescoping places, only the most promising goes on
+  const telescopers = live.filter((c) => c.form.telescoping.length > 0);
+  if (telescopers.length > 1) {
+    const keep = telescopers.reduce((a, b) => (distance(b) < distance(a) ? b : a));
+    live = live.filter((c) => c.form.telescoping.length === 0 || c === keep);
   }
-  let status: ChainFit['status'] = 'fitted';
-  if (chosen === null) {
-    status = 'best-effort';
-    chosen = [...solved.keys()].reduce((best, n) =>
-      solved.get(n)!.result.maxAbsResidual < solved.get(best)!.result.maxAbsResidual ? n : best,
-    );
+  const last = options.plateCount ?? options.maxPlates;
+  for (let n = lowest + 1; winner === null && n <= last; n++) {
+    live = live.map((c) => {
+      const split = splitWorstPlate(c.solved.x, c.solved.spec, options);
+      const next = split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form);
+      return judge(c.form, next);
+    });
+    for (const c of live) if (distance(c) < distance(best)) best = c;
+    winner = live.find(passes) ?? null;
   }
-  const { x, spec, result } = solveFor(chosen);
+  const status: ChainFit['status'] = winner ? 'fitted' : 'best-effort';
+  const final = winner ?? best;
+  const { x, spec, result } = final.solved;
   const chain = chainFromParameters(x, spec);
-  const { fits, plates } = evaluate(chosen);
+  const { fits, plates } = final.evaluation ?? evaluateChain(chain, orifices, openings, shape);
+  const chosen = spec.plateCount;
+  const { startKind, endKind } = spec;
   const findings = fitFindings(chain, fits, orifices, status, options, startKind, endKind, spans);
   return {
     status,
@@ -246,6 +263,23 @@ export function fitChain(
     attempts,
     findings,
   };
+}
+
+/**
+ * Interior plates to try as the telescoping one, most promising first: by how much their chords differ between
+ * stations when every station's pivot line is cut into equal arc-length fractions (Shamsudin et al. 2013 put the
+ * prismatic joint where the stations differ in length).
+ */
+function telescopingCandidates(targets: readonly PivotTarget[], n: number): number[] {
+  const guess = equalArcPivots(
+    targets.map((t) => t.pivotLine),
+    n,
+  );
+  const spread = (k: number) => {
+    const chords = guess.map((p) => Math.hypot(p[k + 1]![0] - p[k]![0], p[k + 1]![1] - p[k]![1]));
+    return Math.max(...chords) - Math.min(...chords);
+  };
+  return Array.from({ length: Math.max(0, n - 2) }, (_, i) => i + 1).sort((a, b) => spread(b) - spread(a));
 }
 
 /**
@@ -285,7 +319,7 @@ function initialChain(
   targets: readonly PivotTarget[],
   samples: readonly (readonly Point[])[],
   n: number,
-  ends: { startKind: EndKind; endKind: EndKind },
+  ends: ChainForm,
   e: number,
   options: ChainFitOptions,
   marched: readonly (readonly Point[])[] | null,
@@ -301,7 +335,9 @@ function initialChain(
     samples,
     plateCount: n,
     edgeOffsetMm: e,
-    ...ends,
+    startKind: ends.startKind,
+    endKind: ends.endKind,
+    telescoping: ends.telescoping.filter((k) => k < n),
     startAnchor,
     endAnchor,
     emphasisMm: 0.7 * options.toleranceMm,
@@ -337,7 +373,15 @@ function initialChain(
       sum += Math.hypot(b[0] - a[0], b[1] - a[1]);
       x[layout.angles + i * n + k] = Math.atan2(b[1] - a[1], b[0] - a[0]);
     });
-    x[layout.lengths + k] = Math.max(options.minPlateLengthMm, sum / guess.length);
+    const mean = Math.max(options.minPlateLengthMm, sum / guess.length);
+    x[layout.lengths + k] = mean;
+    guess.forEach((p, i) => {
+      const ext = extensionIndex(layout, k, i);
+      if (ext >= 0) {
+        const chord = Math.hypot(p[k + 1]![0] - p[k]![0], p[k + 1]![1] - p[k]![1]);
+        x[ext] = Math.max(TELESCOPING_MIN_FACTOR * options.minPlateLengthMm, chord);
+      }
+    });
   }
   return { x, spec };
 }
@@ -372,14 +416,20 @@ function splitWorstPlate(
   });
   let pick = -1;
   for (let k = 0; k < n; k++) {
+    if (layout.telescoping.includes(k)) continue;
     if (x[layout.lengths + k]! >= 2 * options.minPlateLengthMm && (pick < 0 || worst[k]! > worst[pick]!)) pick = k;
   }
   if (pick < 0) return null;
-  const next: ChainProblemSpec = { ...spec, plateCount: n + 1 };
+  const next: ChainProblemSpec = {
+    ...spec,
+    plateCount: n + 1,
+    telescoping: layout.telescoping.map((k) => (k > pick ? k + 1 : k)),
+  };
   const nl = chainLayout(next);
   const y = new Float64Array(nl.parameterCount);
   y.set(x.subarray(layout.start, layout.start + layout.startSize), nl.start);
   y.set(x.subarray(layout.end, layout.end + layout.endSize), nl.end);
+  y.set(x.subarray(layout.extensions, layout.parameterCount), nl.extensions);
   for (let k = 0, j = 0; k < n; k++, j++) {
     const len = x[layout.lengths + k]!;
     y[nl.lengths + j] = k === pick ? len / 2 : len;
@@ -407,6 +457,9 @@ function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFit
   const n = layout.plateCount;
   const lower = new Float64Array(layout.parameterCount).fill(Number.NEGATIVE_INFINITY);
   for (let k = 0; k < n; k++) lower[layout.lengths + k] = options.minPlateLengthMm;
+  for (let c = layout.extensions; c < layout.parameterCount; c++) {
+    lower[c] = TELESCOPING_MIN_FACTOR * options.minPlateLengthMm;
+  }
   const solve = (s: ChainProblemSpec, from: Float64Array, maxIterations: number) => {
     const problem = makeChainProblem(s);
     return solveLeastSquares(
@@ -415,13 +468,21 @@ function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFit
         residualCount: layout.residualCount,
         residuals: problem.residuals,
         jacobian: problem.jacobian,
-        jacobianSparsity: chainSparsity(s),
       },
       from,
       { maxIterations, lowerBounds: lower, costTolerance: 1e-9 },
     );
   };
   let result = solve(spec, x0, options.maxIterations);
+  if (chainMiss(result.x, spec).closureMm > CLOSURE_LIMIT_MM) {
+    // from a poor start the emphasis on large misses can outweigh the closure: settle the chain by plain least
+    // squares first, then emphasise
+    const plain = solve({ ...spec, emphasisMm: 0 }, x0, options.maxIterations);
+    const again = solve(spec, plain.x, options.maxIterations);
+    if (chainMiss(again.x, spec).closureMm < chainMiss(result.x, spec).closureMm) {
+      result = { ...again, iterations: result.iterations + plain.iterations + again.iterations };
+    }
+  }
   // the weak ties of the end pins to their first guesses bias the answer slightly; tie them again where the solve
   // ended and polish, so at convergence the ties cost nothing (a proximal step)
   let polished = spec;
@@ -439,8 +500,17 @@ function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFit
   return { x: result.x, spec: polished, result };
 }
 
-/** A fitted chain must close onto its end pin to within this, mm, or it will not assemble. */
-const CLOSURE_LIMIT_MM = 1e-3;
+/**
+ * A telescoping pair is two plates sliding on each other: its shortest pivot-to-pivot length must hold both plates'
+ * holes and the slide between them, taken as 1.5 plate minimums (common practice, no source).
+ */
+const TELESCOPING_MIN_FACTOR = 1.5;
+
+/**
+ * A fitted chain must close onto its end pin to within this, mm, or it will not assemble: well inside the clearance of
+ * a reamed pin in its hole (a few hundredths of a millimetre; common practice, no source).
+ */
+const CLOSURE_LIMIT_MM = 5e-3;
 
 /** Largest sample miss |dist − e| and largest closure gap of a parameter vector, mm. */
 function chainMiss(x: Float64Array, spec: ChainProblemSpec): { sampleMm: number; closureMm: number } {
@@ -458,34 +528,6 @@ function chainMiss(x: Float64Array, spec: ChainProblemSpec): { sampleMm: number;
     closureMm = Math.max(closureMm, Math.hypot(pivots[n]![0] - pin[0], pivots[n]![1] - pin[1]));
   });
   return { sampleMm, closureMm };
-}
-
-/** Columns each residual row may touch: both ends, every length, and its own station's angles. */
-function chainSparsity(spec: ChainProblemSpec) {
-  const layout = chainLayout(spec);
-  const rowStarts: number[] = [0];
-  const columns: number[] = [];
-  const n = layout.plateCount;
-  const endColumns = (offset: number, kind: EndKind, station: number): number[] =>
-    kind === 'pivot' ? [offset, offset + 1] : [offset, offset + 1, offset + 2, offset + 3 + station];
-  for (let i = 0; i < layout.stationCount; i++) {
-    const cols = [
-      ...endColumns(layout.start, spec.startKind, i),
-      ...endColumns(layout.end, spec.endKind, i),
-      ...Array.from({ length: n }, (_, k) => layout.lengths + k),
-      ...Array.from({ length: n }, (_, k) => layout.angles + i * n + k),
-    ].sort((a, b) => a - b);
-    const rows = spec.samples[i]!.length + 2;
-    for (let r = 0; r < rows; r++) {
-      columns.push(...cols);
-      rowStarts.push(columns.length);
-    }
-  }
-  for (const c of [layout.start, layout.start + 1, layout.end, layout.end + 1]) {
-    columns.push(c);
-    rowStarts.push(columns.length);
-  }
-  return { rowStarts, columns };
 }
 
 /** Exact check: plate outlines, achieved orifice by clipping, deviation and area error per station. */

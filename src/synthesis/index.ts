@@ -8,6 +8,8 @@ export {
   type ChainLayout,
   type EndKind,
   chainLayout,
+  extensionIndex,
+  plateLength,
   makeChainProblem,
   chainFromParameters,
 } from './chain-problem.js';
@@ -19,3 +21,4 @@ export {
   resolveChainFitOptions,
   fitChain,
 } from './fit-chain.js';
+export * from './dyads/index.js';

@@ -26,6 +26,11 @@ export interface PlateChain {
   readonly end: ChainEnd;
   /** pivots[i][k] = pivot k at station i, mm; k = 0..N. */
   readonly pivots: readonly (readonly Point[])[];
+  /**
+   * Telescoping plates (0-based plate index): a pair of plates joined by a prismatic joint, whose pivot-to-pivot
+   * length is `stationLengthsMm[i]` at station i (`lengthsMm[plate]` is their mean). Empty for a chain of rigid plates.
+   */
+  readonly telescoping: readonly { readonly plate: number; readonly stationLengthsMm: readonly number[] }[];
 }
 
 /** Where an end's pin sits at station i, mm. */

@@ -98,6 +98,7 @@ describe('fitChain', () => {
     for (const [k, l] of fit.chain.lengthsMm.entries()) expect(Math.abs(l - lengths[k]!)).toBeLessThan(1e-3);
     for (const s of fit.stations) expect(s.maxDeviationMm).toBeLessThan(0.01);
     // rigidity: every station's pivots are exactly the common lengths apart
+    expect(fit.chain.telescoping).toHaveLength(0);
     for (const pivots of fit.chain.pivots) {
       for (let k = 0; k < lengths.length; k++) {
         const a = pivots[k]!;
@@ -105,6 +106,33 @@ describe('fitChain', () => {
         expect(Math.hypot(b[0] - a[0], b[1] - a[1])).toBeCloseTo(fit.chain.lengthsMm[k]!, 12);
       }
     }
+  });
+});
+
+describe('telescoping plates', () => {
+  it('a chain whose middle plate changes length gets a telescoping plate and meets the tolerance', () => {
+    // self-consistent case: stations from a known chain whose middle plate is 11, 13 and 15 mm long (a telescoping
+    // pair, Shamsudin et al. 2013); the ends are pinned and slots are not allowed, so rigid plates cannot follow
+    const start: P = [-6, 16];
+    const end: P = [46, 16];
+    const stations = [
+      { lengths: [12, 11, 11, 11, 12], bends: [-0.45, 0.0, 0.35] },
+      { lengths: [12, 11, 13, 11, 12], bends: [-0.55, -0.05, 0.45] },
+      { lengths: [12, 11, 15, 11, 12], bends: [-0.65, -0.1, 0.5] },
+    ];
+    const chains = stations.map((s) => closeChain(s.lengths, start, end, s.bends, false));
+    const orifices = chains.map((c) => channelOrifice(c, 5, 40, 0.01));
+    const spans = spansOf(orifices);
+    const options = { toleranceMm: 0.05, maxPlates: 8, ...plates, allowSlots: false };
+    const fit = fitChain(orifices, spans, resolveChainFitOptions(options));
+    expect(fit.status).toBe('fitted');
+    expect(fit.chain.telescoping).toHaveLength(1);
+    const tele = fit.chain.telescoping[0]!;
+    // the known pair: plate 3, stroke 4 mm (15 − 11)
+    expect(tele.plate).toBe(2);
+    expect(Math.max(...tele.stationLengthsMm) - Math.min(...tele.stationLengthsMm)).toBeCloseTo(4, 2);
+    const rigidOnly = fitChain(orifices, spans, resolveChainFitOptions({ ...options, allowTelescoping: false }));
+    expect(rigidOnly.status === 'best-effort' || rigidOnly.plateCount > fit.plateCount).toBe(true);
   });
 });
 
