@@ -41,6 +41,18 @@ export interface ChainProblemSpec {
    * length is tied to their mean. @default none
    */
   readonly telescoping?: readonly number[];
+  /**
+   * Points of the die-body boundary per station that the plates must not come closer to than e (they would cover the
+   * melt channel there): a one-sided residual w·min(0, dist − e). mm. @default none
+   */
+  readonly keepOut?: readonly (readonly Point[])[];
+  /** Weight of the keep-out residuals (dimensionless). @default 3 */
+  readonly keepOutWeight?: number;
+  /**
+   * Per-station weights of the span samples, same shape as `samples` (dimensionless). Shaped edges use them: the
+   * middle of a plate is the edge's business, its ends (round, centred on the pivots) the pivots'. @default all 1
+   */
+  readonly sampleWeights?: readonly (readonly number[])[];
 }
 
 export interface ChainLayout {
@@ -85,7 +97,8 @@ export function chainLayout(spec: ChainProblemSpec): ChainLayout {
   const end = start + startSize;
   const telescoping = [...(spec.telescoping ?? [])];
   const extensions = end + endSize;
-  const sampleCount = spec.samples.reduce((k, q) => k + q.length, 0);
+  const sampleCount =
+    spec.samples.reduce((k, q) => k + q.length, 0) + (spec.keepOut ?? []).reduce((k, q) => k + q.length, 0);
   return {
     stationCount: s,
     plateCount: n,
@@ -162,6 +175,8 @@ export function makeChainProblem(spec: ChainProblemSpec) {
   const w = spec.closureWeight ?? 30;
   const wa = spec.anchorWeight ?? 1e-4;
   const tau = spec.emphasisMm ?? 0;
+  const wk = spec.keepOutWeight ?? 3;
+  const keepOut = spec.keepOut ?? spec.samples.map(() => []);
   const inv2 = tau > 0 ? 1 / (tau * tau) : 0;
   const px = new Float64Array(n + 1);
   const py = new Float64Array(n + 1);
@@ -195,10 +210,12 @@ export function makeChainProblem(spec: ChainProblemSpec) {
     let row = 0;
     for (let i = 0; i < layout.stationCount; i++) {
       stationPivots(x, layout, spec, i, px, py);
-      for (const q of spec.samples[i]!) {
+      const weights = spec.sampleWeights?.[i];
+      spec.samples[i]!.forEach((q, j) => {
         const miss = nearest(q[0], q[1]).distance - e;
-        r[row++] = miss + miss * miss * miss * inv2;
-      }
+        r[row++] = (weights?.[j] ?? 1) * (miss + miss * miss * miss * inv2);
+      });
+      for (const q of keepOut[i]!) r[row++] = wk * Math.min(0, nearest(q[0], q[1]).distance - e);
       const endPin = pin(x, layout.end, spec.endKind, i);
       r[row++] = w * (px[n]! - endPin[0]);
       r[row++] = w * (py[n]! - endPin[1]);
@@ -222,19 +239,20 @@ export function makeChainProblem(spec: ChainProblemSpec) {
     for (let i = 0; i < layout.stationCount; i++) {
       stationPivots(x, layout, spec, i, px, py);
       const angleBase = layout.angles + i * n;
-      for (const q of spec.samples[i]!) {
+      // d(dist)/dP_k = −(1 − t)·n, d(dist)/dP_{k+1} = −t·n (n: unit from the nearest point to q); P_k depends on the
+      // start pin and plates 0..k−1; `scale` carries the residual's own derivative with respect to the distance
+      const writeRow = (q: Point, scale: number) => {
         const { distance, segment: k, t } = nearest(q[0], q[1]);
         const ro = row * cols;
         row++;
-        if (distance < 1e-12) continue;
+        const miss = distance - e;
+        const lift = scale < 0 ? (miss < 0 ? -scale : 0) : scale * (1 + 3 * miss * miss * inv2);
+        // a zero weight leaves the row empty (its residual is zero too)
+        if (distance < 1e-12 || lift === 0) return;
         const cx = px[k]! + t * (px[k + 1]! - px[k]!);
         const cy = py[k]! + t * (py[k + 1]! - py[k]!);
-        // chain rule through r = m + m³/τ²
-        const miss = distance - e;
-        const lift = 1 + 3 * miss * miss * inv2;
         const nx = ((q[0] - cx) / distance) * lift;
         const ny = ((q[1] - cy) / distance) * lift;
-        // ∂r/∂P_k = −(1 − t)·n, ∂r/∂P_{k+1} = −t·n; P_k depends on the start pin and plates 0..k−1
         const gax = -(1 - t) * nx;
         const gay = -(1 - t) * ny;
         const gbx = -t * nx;
@@ -251,7 +269,13 @@ export function makeChainProblem(spec: ChainProblemSpec) {
           jac[ro + (ext >= 0 ? ext : layout.lengths + j)] = c * gx + s * gy;
           jac[ro + angleBase + j] = len * (-s * gx + c * gy);
         }
-      }
+      };
+      const weights = spec.sampleWeights?.[i];
+      spec.samples[i]!.forEach((q, j) => {
+        writeRow(q, weights?.[j] ?? 1);
+      });
+      // keep-out rows: negative scale marks the one-sided residual w·min(0, dist − e)
+      for (const q of keepOut[i]!) writeRow(q, -wk);
       for (let axis = 0; axis < 2; axis++) {
         const ro = row * cols;
         row++;

@@ -22,6 +22,7 @@ import { equalArcPivots, marchChain } from './march-chain.js';
 import { endPoint, type PlateChain } from './plate-chain.js';
 import { plateOutline, type PlateShape } from './plate-outline.js';
 import { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
+import { type EdgeProfile, shapePlateEdges } from './shape-plate-edges.js';
 
 /** Settings of one chain fit; `resolveChainFitOptions` documents the defaults. */
 export interface ChainFitOptions {
@@ -44,6 +45,8 @@ export interface ChainFitOptions {
   readonly allowSlots: boolean;
   /** May one plate telescope when neither pinned nor slotted ends can? @default true */
   readonly allowTelescoping: boolean;
+  /** May plates carry shaped edges (common to all stations) when straight edges miss? @default true */
+  readonly shapedEdges: boolean;
 }
 
 function describeForm(spec: ChainProblemSpec): string {
@@ -71,6 +74,7 @@ export function resolveChainFitOptions(
     plateCount: null,
     allowSlots: true,
     allowTelescoping: true,
+    shapedEdges: true,
     ...partial,
   };
 }
@@ -114,6 +118,8 @@ export interface ChainFit {
   readonly shape: PlateShape;
   /** Plate outlines at each station, plates[i][k], die-body frame. */
   readonly plates: readonly (readonly Region[])[];
+  /** Each plate's shaped melt edge in its own frame, or null for a straight edge. */
+  readonly edgeProfiles: readonly (EdgeProfile | null)[];
   readonly opening: Region;
   readonly stations: readonly StationFit[];
   readonly solver: {
@@ -151,6 +157,7 @@ export function fitChain(
   const extension = e + options.pivotHoleDiameterMm;
   const targets = preparePivotTargets(spans, e, extension, options.sampleSpacingMm);
   const samples = targets.map((t) => t.span);
+  const keepOut = spans.map((span) => keepOutPoints(span, extension + 2 * e + options.minPlateLengthMm, 0.5));
   const reach = 3 * (spanExtent(targets) + options.depthMm);
   const openings = spans.map((s) => dieOpening(s.fixed, reach));
 
@@ -162,7 +169,7 @@ export function fitChain(
   );
   const estimate = options.plateCount ?? Math.max(1, Math.min(options.maxPlates, march.lengthsMm.length));
   // marching overestimates where stations bend at different places: the scan starts a little below it
-  const lowest = options.plateCount ?? Math.max(1, estimate - 2);
+  const lowest = options.plateCount ?? Math.max(1, estimate - Math.max(2, Math.round(estimate / 4)));
   type Solved = ReturnType<typeof refineChain>;
   const fromScratch = (n: number, form: ChainForm): Solved => {
     // a telescoping plate keeps its place along the chain when the plate count changes
@@ -172,10 +179,10 @@ export function fitChain(
         Math.min(n - 2, Math.max(1, Math.round(((k + 0.5) * n) / lowest - 0.5))),
       ),
     };
-    const start = initialChain(targets, samples, n, ends, e, options, null);
+    const start = initialChain(targets, samples, keepOut, n, ends, e, options, null);
     let best = refineChain(start.x, start.spec, options);
     if (n === march.lengthsMm.length && best.result.maxAbsResidual > options.toleranceMm) {
-      const marchedStart = initialChain(targets, samples, n, ends, e, options, march.pivots);
+      const marchedStart = initialChain(targets, samples, keepOut, n, ends, e, options, march.pivots);
       const other = refineChain(marchedStart.x, marchedStart.spec, options);
       if (other.result.cost < best.result.cost) best = other;
     }
@@ -196,7 +203,7 @@ export function fitChain(
 
   interface Candidate {
     readonly form: ChainForm;
-    readonly solved: Solved;
+    solved: Solved;
     readonly miss: { sampleMm: number; closureMm: number };
     evaluation: ReturnType<typeof evaluateChain> | null;
   }
@@ -205,7 +212,8 @@ export function fitChain(
     const miss = chainMiss(solved.x, solved.spec);
     const candidate: Candidate = { form, solved, miss, evaluation: null };
     // samples can pass while plate bodies or round ends miss between them: the exact check has the last word
-    if (miss.sampleMm <= options.toleranceMm && miss.closureMm <= CLOSURE_LIMIT_MM) {
+    const closes = miss.closureMm <= CLOSURE_LIMIT_MM;
+    if (miss.sampleMm <= options.toleranceMm && closes) {
       candidate.evaluation = evaluateChain(chainFromParameters(solved.x, solved.spec), orifices, openings, shape);
     }
     attempts.push({
@@ -219,13 +227,60 @@ export function fitChain(
     });
     return candidate;
   };
+  /**
+   * The chain refitted for shaped edges: the pivots are pulled onto the samples near them (the round ends must meet
+   * the target there) while mid-plate samples are left to the edge, then the edges are shaped and checked exactly.
+   */
+  const shapedCandidate = (solved: Solved) => {
+    const weights = edgeSampleWeights(chainFromParameters(solved.x, solved.spec), solved.spec.samples, e);
+    const refit = refineChain(solved.x, { ...solved.spec, sampleWeights: weights, emphasisMm: 0 }, options);
+    if (chainMiss(refit.x, refit.spec).closureMm > CLOSURE_LIMIT_MM) return null;
+    const chain = chainFromParameters(refit.x, refit.spec);
+    const edges = shapePlateEdges(chain, refit.spec.samples, { edgeOffsetMm: e, ligamentMm: options.ligamentMm }).map(
+      (edge, k) => (chain.telescoping.some((t) => t.plate === k) ? null : edge),
+    );
+    return { solved: refit, evaluation: evaluateChain(chain, orifices, openings, shape, edges) };
+  };
+  /**
+   * Straight edges miss by their sagitta, shaped edges only by how much the stations differ locally: the closest
+   * candidates of a plate count that failed with straight edges get a try with shaped ones.
+   */
+  const tryShaped = (c: Candidate): void => {
+    if (!options.shapedEdges || c.miss.closureMm > CLOSURE_LIMIT_MM || c.miss.sampleMm > SHAPED_REACH_MM) return;
+    const shaped = shapedCandidate(c.solved);
+    if (shaped && (c.evaluation === null || shaped.evaluation.worst < c.evaluation.worst)) {
+      c.solved = shaped.solved;
+      c.evaluation = shaped.evaluation;
+      attempts.push({
+        plateCount: shaped.solved.spec.plateCount,
+        form: `${describeForm(shaped.solved.spec)}, shaped edges`,
+        solverStatus: shaped.solved.result.status,
+        iterations: shaped.solved.result.iterations,
+        maxSampleResidualMm: c.miss.sampleMm,
+        closureGapMm: chainMiss(shaped.solved.x, shaped.solved.spec).closureMm,
+        maxDeviationMm: shaped.evaluation.worst,
+      });
+    }
+  };
   const passes = (c: Candidate) => c.evaluation !== null && c.evaluation.worst <= options.toleranceMm;
   /** How far a candidate is from passing, for choosing the best effort. */
   const distance = (c: Candidate) =>
     c.evaluation?.worst ?? (c.miss.closureMm <= CLOSURE_LIMIT_MM ? c.miss.sampleMm : Number.POSITIVE_INFINITY);
 
-  let live: Candidate[] = forms.map((form) => judge(form, fromScratch(lowest, form)));
-  let best = live.reduce((a, b) => (distance(b) < distance(a) ? b : a));
+  const closest = (cs: readonly Candidate[]) => cs.reduce((a, b) => (distance(b) < distance(a) ? b : a));
+  // forms are tried in order of simplicity and the first that passes ends the first level
+  let live: Candidate[] = [];
+  for (const form of forms) {
+    live.push(judge(form, fromScratch(lowest, form)));
+    if (passes(live[live.length - 1]!)) break;
+  }
+  const shapeNearest = (cs: readonly Candidate[]) => {
+    if (cs.some(passes)) return;
+    const near = distance(closest(cs));
+    for (const c of cs) if (distance(c) <= 1.5 * near) tryShaped(c);
+  };
+  shapeNearest(live);
+  let best = closest(live);
   let winner = live.find(passes) ?? null;
   // of several telescoping places, only the most promising goes on
   const telescopers = live.filter((c) => c.form.telescoping.length > 0);
@@ -240,6 +295,7 @@ export function fitChain(
       const next = split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form);
       return judge(c.form, next);
     });
+    shapeNearest(live);
     for (const c of live) if (distance(c) < distance(best)) best = c;
     winner = live.find(passes) ?? null;
   }
@@ -247,7 +303,7 @@ export function fitChain(
   const final = winner ?? best;
   const { x, spec, result } = final.solved;
   const chain = chainFromParameters(x, spec);
-  const { fits, plates } = final.evaluation ?? evaluateChain(chain, orifices, openings, shape);
+  const { fits, plates, edges } = final.evaluation ?? evaluateChain(chain, orifices, openings, shape);
   const chosen = spec.plateCount;
   const { startKind, endKind } = spec;
   const findings = fitFindings(chain, fits, orifices, status, options, startKind, endKind, spans);
@@ -257,6 +313,7 @@ export function fitChain(
     plateCount: chosen,
     shape,
     plates,
+    edgeProfiles: edges ?? chain.lengthsMm.map(() => null),
     opening: openings[0]!,
     stations: fits,
     solver: { status: result.status, iterations: result.iterations, reason: result.reason },
@@ -318,6 +375,7 @@ function spanExtent(targets: readonly PivotTarget[]): number {
 function initialChain(
   targets: readonly PivotTarget[],
   samples: readonly (readonly Point[])[],
+  keepOut: readonly (readonly Point[])[],
   n: number,
   ends: ChainForm,
   e: number,
@@ -341,6 +399,7 @@ function initialChain(
     startAnchor,
     endAnchor,
     emphasisMm: 0.7 * options.toleranceMm,
+    keepOut,
   };
   const layout = chainLayout(spec);
   const x = new Float64Array(layout.parameterCount);
@@ -507,10 +566,68 @@ function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFit
 const TELESCOPING_MIN_FACTOR = 1.5;
 
 /**
+ * Points of the die-body boundary near the span's ends, every `spacing` mm, out to `reach` mm from either end: where
+ * plates leaving the opening would cover the melt channel if they strayed.
+ */
+function keepOutPoints(span: MovingSpan, reach: number, spacing: number): Point[] {
+  const out: Point[] = [];
+  const near = (p: Point) =>
+    Math.hypot(p[0] - span.start[0], p[1] - span.start[1]) <= reach ||
+    Math.hypot(p[0] - span.end[0], p[1] - span.end[1]) <= reach;
+  const line = span.fixed;
+  for (let i = 0; i + 1 < line.length; i++) {
+    const a = line[i]!;
+    const b = line[i + 1]!;
+    const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+    const steps = Math.max(1, Math.ceil(len / spacing));
+    for (let k = i === 0 ? 1 : 0; k < steps; k++) {
+      const p: Point = [a[0] + ((b[0] - a[0]) * k) / steps, a[1] + ((b[1] - a[1]) * k) / steps];
+      if (near(p)) out.push(p);
+    }
+  }
+  return out;
+}
+
+/**
  * A fitted chain must close onto its end pin to within this, mm, or it will not assemble: well inside the clearance of
  * a reamed pin in its hole (a few hundredths of a millimetre; common practice, no source).
  */
 const CLOSURE_LIMIT_MM = 5e-3;
+
+/**
+ * Weights for refitting a chain that will carry shaped edges: 1 for samples facing a plate's ends (within the edge's
+ * blend length of a pivot), falling smoothly to 5 % at mid-plate, where the shaped edge takes over.
+ */
+function edgeSampleWeights(chain: PlateChain, samples: readonly (readonly Point[])[], e: number): number[][] {
+  return chain.pivots.map((pivots, i) =>
+    samples[i]!.map((q) => {
+      let best = Number.POSITIVE_INFINITY;
+      let along = 0;
+      let length = 1;
+      for (let k = 0; k + 1 < pivots.length; k++) {
+        const a = pivots[k]!;
+        const b = pivots[k + 1]!;
+        const dx = b[0] - a[0];
+        const dy = b[1] - a[1];
+        const l2 = dx * dx + dy * dy;
+        const t = l2 > 0 ? Math.max(0, Math.min(1, ((q[0] - a[0]) * dx + (q[1] - a[1]) * dy) / l2)) : 0;
+        const d = Math.hypot(a[0] + t * dx - q[0], a[1] + t * dy - q[1]);
+        if (d < best) {
+          best = d;
+          length = Math.sqrt(l2);
+          along = t * length;
+        }
+      }
+      const blend = Math.min(e, length / 3);
+      const x = Math.min(along, length - along) / blend;
+      const c = Math.max(0, Math.min(1, x));
+      return Math.max(0.05, 1 - c * c * (3 - 2 * c));
+    }),
+  );
+}
+
+/** Shaped edges are tried on chains whose straight-edge samples miss by up to this much, mm. */
+const SHAPED_REACH_MM = 1;
 
 /** Largest sample miss |dist − e| and largest closure gap of a parameter vector, mm. */
 function chainMiss(x: Float64Array, spec: ChainProblemSpec): { sampleMm: number; closureMm: number } {
@@ -531,11 +648,19 @@ function chainMiss(x: Float64Array, spec: ChainProblemSpec): { sampleMm: number;
 }
 
 /** Exact check: plate outlines, achieved orifice by clipping, deviation and area error per station. */
-function evaluateChain(chain: PlateChain, orifices: readonly Region[], openings: readonly Region[], shape: PlateShape) {
+function evaluateChain(
+  chain: PlateChain,
+  orifices: readonly Region[],
+  openings: readonly Region[],
+  shape: PlateShape,
+  edges: readonly (EdgeProfile | null)[] | null = null,
+) {
   const plates: Region[][] = [];
   const fits: StationFit[] = chain.pivots.map((pivots, i) => {
     const stationPlates: Region[] = [];
-    for (let k = 0; k + 1 < pivots.length; k++) stationPlates.push(plateOutline(pivots[k]!, pivots[k + 1]!, shape));
+    for (let k = 0; k + 1 < pivots.length; k++) {
+      stationPlates.push(plateOutline(pivots[k]!, pivots[k + 1]!, shape, edges?.[k] ?? null));
+    }
     plates.push(stationPlates);
     const target = orifices[i]!;
     const achieved = achievedOrifice(openings[i]!, stationPlates, target);
@@ -564,7 +689,7 @@ function evaluateChain(chain: PlateChain, orifices: readonly Region[], openings:
       areaErrorPct: ((regionArea(achieved) - targetArea) / targetArea) * 100,
     };
   });
-  return { fits, plates, worst: Math.max(...fits.map((f) => f.maxDeviationMm)) };
+  return { fits, plates, worst: Math.max(...fits.map((f) => f.maxDeviationMm)), edges };
 }
 
 function fitFindings(

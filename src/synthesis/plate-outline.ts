@@ -16,8 +16,10 @@ export interface PlateShape {
  * e on the right (the melt side of a span walked clockwise), with ends that are arcs of radius e centred on the
  * pivots, so neighbouring plates seal against each other at any relative angle (DOMAIN.md §2); the body extends to
  * `depthMm` from the melt edge on the left; two pivot holes. Outer ring counter-clockwise, holes clockwise.
+ *
+ * @param edge a shaped melt edge in the plate frame (see `shapePlateEdges`); null for the straight edge at e.
  */
-export function plateOutline(a: Point, b: Point, shape: PlateShape): Region {
+export function plateOutline(a: Point, b: Point, shape: PlateShape, edge: readonly Point[] | null = null): Region {
   const e = shape.edgeOffsetMm;
   const dx = b[0] - a[0];
   const dy = b[1] - a[1];
@@ -29,6 +31,13 @@ export function plateOutline(a: Point, b: Point, shape: PlateShape): Region {
   const outer: Point[] = [];
   // around b from the left normal, through forward, to the right normal (clockwise in angle = −π)
   outer.push(...arc(b, e, angleLeft, angleLeft - Math.PI, shape.arcToleranceMm));
+  // a shaped melt edge, given in the plate frame (s along a→b, d toward the body), from b's end back to a's
+  if (edge) {
+    for (let j = edge.length - 1; j >= 0; j--) {
+      const [s, d] = edge[j]!;
+      outer.push([a[0] + u[0] * s + left[0] * d, a[1] + u[1] * s + left[1] * d]);
+    }
+  }
   // around a from the right normal, through backward, to the left normal
   outer.push(...arc(a, e, angleLeft - Math.PI, angleLeft - 2 * Math.PI, shape.arcToleranceMm));
   outer.push([a[0] + left[0] * back, a[1] + left[1] * back]);

@@ -1,0 +1,80 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fixture, makeTestApp } from '../support/test-app.js';
+
+type App = Awaited<ReturnType<typeof makeTestApp>>;
+let app: App;
+beforeAll(async () => {
+  app = await makeTestApp();
+});
+afterAll(async () => {
+  await app.close();
+});
+
+const post = (body: unknown) =>
+  request(app.server).post('/v1/plans').set('content-type', 'application/json').send(JSON.stringify(body));
+
+describe('POST /v1/plans and GET /v1/plans/{id}', () => {
+  it('plans the demo: every station within the fit tolerance, a mechanism with joints at every station', async () => {
+    const created = await post(fixture('demo-edging-strip'));
+    expect(created.status).toBe(202);
+    expect(created.body.id).toBeTruthy();
+    expect(created.headers.location).toBe(`/v1/plans/${created.body.id}`);
+
+    const res = await request(app.server).get(created.headers.location as string);
+    expect(res.status).toBe(200);
+    const plan = res.body;
+    expect(plan.status).toBe('done');
+    expect(plan.stations).toHaveLength(4);
+    for (const s of plan.stations) {
+      // CONTRACT.md: target and achieved orifices, and the fit against the schedule's 0.2 mm tolerance
+      expect(s.target_orifice.outer.length).toBeGreaterThan(3);
+      expect(s.achieved_orifice.outer.length).toBeGreaterThan(3);
+      expect(s.fit.max_deviation_mm).toBeLessThanOrEqual(0.2);
+      expect(Math.abs(s.fit.area_error_pct)).toBeLessThan(2);
+    }
+    expect(plan.chain.status).toBe('fitted');
+    expect(plan.chain.plate_lengths_mm).toHaveLength(plan.chain.plate_count);
+    const m = plan.mechanism;
+    expect(m.bodies.filter((b: { kind: string }) => b.kind === 'plate').length).toBeGreaterThanOrEqual(
+      plan.chain.plate_count,
+    );
+    for (const j of m.joints) expect(j.station_positions).toHaveLength(4);
+    // Grübler–Kutzbach on the reported bodies and joints (all lower pairs): M = 3(n − 1) − 2j
+    expect(m.mobility).toBe(3 * (m.bodies.length - 1) - 2 * m.joints.length);
+    // rigidity: the two pivots of every rigid plate are the same distance apart at every station
+    const pivots = plan.stations.map((s: { plates: { pivots_mm: number[][] }[] }) => s.plates);
+    for (let k = 0; k < plan.chain.plate_count; k++) {
+      const lengths = pivots.map((p: { pivots_mm: number[][] }[]) =>
+        Math.hypot(
+          p[k]!.pivots_mm[1]![0]! - p[k]!.pivots_mm[0]![0]!,
+          p[k]!.pivots_mm[1]![1]! - p[k]!.pivots_mm[0]![1]!,
+        ),
+      );
+      if (plan.chain.telescoping.length === 0) for (const l of lengths) expect(l).toBeCloseTo(lengths[0], 3);
+    }
+    expect(plan.cautions.length).toBeGreaterThan(3);
+  });
+
+  it('stores a failed plan with its reason when the stations cannot be reconciled', async () => {
+    const created = await post(fixture('fixed-part-disagrees'));
+    expect(created.status).toBe(202);
+    const res = await request(app.server).get(`/v1/plans/${created.body.id}`);
+    expect(res.body.status).toBe('failed');
+    expect(res.body.error).toMatch(/separate places/);
+    expect(res.body.mechanism).toBeNull();
+    expect(res.body.findings.some((f: { code: string }) => f.code === 'SPAN_NOT_RECONCILED')).toBe(true);
+  });
+
+  it('refuses a plan of one station with 400 naming stations', async () => {
+    const res = await post(fixture('thin-wall'));
+    expect(res.status).toBe(400);
+    expect(res.body.details[0].path).toBe('stations');
+  });
+
+  it('answers 404 for an unknown plan', async () => {
+    const res = await request(app.server).get('/v1/plans/no-such-plan');
+    expect(res.status).toBe(404);
+    expect(res.body.error).toBe('not_found');
+  });
+});
