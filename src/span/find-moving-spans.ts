@@ -1,5 +1,5 @@
-import type { Point, Polyline, Region } from '../geometry/index.js';
-import { pointInRegion } from './point-in-region.js';
+import { type Point, type Polyline, pointInRegion, type Region } from '../geometry/index.js';
+import { DEFAULT_TOLERANCES } from '../numeric/index.js';
 import { makeRingWalk, pointAtArc, type RingWalk, subpathCcw, wrapArc } from './ring-walk.js';
 import { isNearBoundary, makeSegmentGrid, type SegmentGrid } from './segment-grid.js';
 
@@ -352,7 +352,10 @@ function slideOneEnd(
     const across = (p[0] - p0[0]) * uy - (p[1] - p0[1]) * ux;
     if (Math.abs(across) > tol || along <= lastAlong) return { ok: false, along };
     const beyond: Point = [p[0] + nx * probe, p[1] + ny * probe];
-    return { ok: !orifices.some((o, j) => j !== self && pointInRegion(beyond, o)), along };
+    return {
+      ok: !orifices.some((o, j) => j !== self && pointInRegion(beyond, o, DEFAULT_TOLERANCES) === 'inside'),
+      along,
+    };
   };
   const step = Math.max(tol, 0.05);
   let slid = 0;

@@ -4,4 +4,3 @@ export {
   type MovingSpanOptions,
   findMovingSpans,
 } from './find-moving-spans.js';
-export { pointInRing, pointInRegion } from './point-in-region.js';

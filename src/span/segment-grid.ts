@@ -1,4 +1,4 @@
-import type { Point, Ring } from '../geometry/index.js';
+import { type Point, pointToSegmentDistance, type Ring } from '../geometry/index.js';
 
 /**
  * A uniform bucket grid over a ring's edges, so "is this point within τ of that boundary?" costs a few segment tests
@@ -60,22 +60,8 @@ export function isNearBoundary(grid: SegmentGrid, p: Point, radiusMm: number): b
   const list = grid.cells.get(r * grid.cols + c);
   if (!list) return false;
   const ring = grid.ring;
-  const r2 = radiusMm * radiusMm;
   for (const i of list) {
-    const a = ring[i]!;
-    const b = ring[(i + 1) % ring.length]!;
-    if (squaredDistanceToSegment(p, a, b) <= r2) return true;
+    if (pointToSegmentDistance(p, ring[i]!, ring[(i + 1) % ring.length]!) <= radiusMm) return true;
   }
   return false;
-}
-
-function squaredDistanceToSegment(p: Point, a: Point, b: Point): number {
-  const dx = b[0] - a[0];
-  const dy = b[1] - a[1];
-  const len2 = dx * dx + dy * dy;
-  let t = len2 > 0 ? ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2 : 0;
-  t = Math.max(0, Math.min(1, t));
-  const ex = a[0] + t * dx - p[0];
-  const ey = a[1] + t * dy - p[1];
-  return ex * ex + ey * ey;
 }

@@ -22,6 +22,7 @@ import { equalArcPivots, marchChain } from './march-chain.js';
 import { endPoint, type PlateChain } from './plate-chain.js';
 import { plateOutline, type PlateShape } from './plate-outline.js';
 import { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
+import { nearestPlate } from './nearest-plate.js';
 import { type EdgeProfile, shapePlateEdges } from './shape-plate-edges.js';
 
 /** Settings of one chain fit; `resolveChainFitOptions` documents the defaults. */
@@ -461,16 +462,8 @@ function splitWorstPlate(
   const worst = new Float64Array(n);
   chain.pivots.forEach((pivots, i) => {
     for (const q of spec.samples[i]!) {
-      let best = Number.POSITIVE_INFINITY;
-      let seg = 0;
-      for (let k = 0; k < n; k++) {
-        const d = segmentDistance(q, pivots[k]!, pivots[k + 1]!);
-        if (d < best) {
-          best = d;
-          seg = k;
-        }
-      }
-      worst[seg] = Math.max(worst[seg]!, Math.abs(best - spec.edgeOffsetMm));
+      const near = nearestPlate(q, pivots);
+      worst[near.plate] = Math.max(worst[near.plate]!, Math.abs(near.distance - spec.edgeOffsetMm));
     }
   });
   let pick = -1;
@@ -601,23 +594,9 @@ const CLOSURE_LIMIT_MM = 5e-3;
 function edgeSampleWeights(chain: PlateChain, samples: readonly (readonly Point[])[], e: number): number[][] {
   return chain.pivots.map((pivots, i) =>
     samples[i]!.map((q) => {
-      let best = Number.POSITIVE_INFINITY;
-      let along = 0;
-      let length = 1;
-      for (let k = 0; k + 1 < pivots.length; k++) {
-        const a = pivots[k]!;
-        const b = pivots[k + 1]!;
-        const dx = b[0] - a[0];
-        const dy = b[1] - a[1];
-        const l2 = dx * dx + dy * dy;
-        const t = l2 > 0 ? Math.max(0, Math.min(1, ((q[0] - a[0]) * dx + (q[1] - a[1]) * dy) / l2)) : 0;
-        const d = Math.hypot(a[0] + t * dx - q[0], a[1] + t * dy - q[1]);
-        if (d < best) {
-          best = d;
-          length = Math.sqrt(l2);
-          along = t * length;
-        }
-      }
+      const near = nearestPlate(q, pivots);
+      const length = Math.max(near.plateLengthMm, 1e-9);
+      const along = near.t * length;
       const blend = Math.min(e, length / 3);
       const x = Math.min(along, length - along) / blend;
       const c = Math.max(0, Math.min(1, x));
@@ -637,9 +616,7 @@ function chainMiss(x: Float64Array, spec: ChainProblemSpec): { sampleMm: number;
   chain.pivots.forEach((pivots, i) => {
     const n = pivots.length - 1;
     for (const q of spec.samples[i]!) {
-      let best = Number.POSITIVE_INFINITY;
-      for (let k = 0; k < n; k++) best = Math.min(best, segmentDistance(q, pivots[k]!, pivots[k + 1]!));
-      sampleMm = Math.max(sampleMm, Math.abs(best - spec.edgeOffsetMm));
+      sampleMm = Math.max(sampleMm, Math.abs(nearestPlate(q, pivots).distance - spec.edgeOffsetMm));
     }
     const pin = endPoint(chain.end, i);
     closureMm = Math.max(closureMm, Math.hypot(pivots[n]![0] - pin[0], pivots[n]![1] - pin[1]));
@@ -732,6 +709,18 @@ function fitFindings(
         break;
       }
     }
+  }
+  for (const t of chain.telescoping) {
+    const stroke = Math.max(...t.stationLengthsMm) - Math.min(...t.stationLengthsMm);
+    const shortest = Math.min(...t.stationLengthsMm);
+    // the two plates of the pair overlap by the shortest length less one plate minimum at each end
+    const overlap = shortest - options.minPlateLengthMm;
+    findings.push({
+      code: 'TELESCOPING_PLATE',
+      severity: overlap < options.minPlateLengthMm / 2 ? 'warning' : 'info',
+      value: stroke,
+      message: `Plate ${t.plate + 1} is a telescoping pair: its pivots are ${fmt(shortest)}–${fmt(Math.max(...t.stationLengthsMm))} mm apart across stations (stroke ${fmt(stroke)} mm), leaving about ${fmt(overlap)} mm of slide overlap at its shortest. Check the slide's guidance and sealing with the tool maker.`,
+    });
   }
   if (startKind === 'slot' || endKind === 'slot') {
     const end = startKind === 'slot' ? chain.start : chain.end;

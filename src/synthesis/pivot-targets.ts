@@ -1,4 +1,10 @@
-import { type Point, type Polyline, polylineLength, resampleByArcLength } from '../geometry/index.js';
+import {
+  discreteCurvature,
+  type Point,
+  type Polyline,
+  polylineLength,
+  resampleByArcLength,
+} from '../geometry/index.js';
 import type { MovingSpan } from '../span/index.js';
 
 /** What the chain fit aims at in one station. Millimetres, die-body frame. */
@@ -13,6 +19,8 @@ export interface PivotTarget {
    * the end tangents (into the die body, where the end pivots sit).
    */
   readonly pivotLine: Polyline;
+  /** Signed curvature of the resampled span at each point, 1/mm (circle through neighbours; + for left turns). */
+  readonly curvature: readonly number[];
   /** Unit tangents of the span at its start and end, in the walking direction. */
   readonly startTangent: Point;
   readonly endTangent: Point;
@@ -44,7 +52,8 @@ export function preparePivotTargets(
       ...offset,
       [last[0] + endTangent[0] * extensionMm, last[1] + endTangent[1] * extensionMm] as Point,
     ];
-    return { station, span: resampled, spanLengthMm: length, pivotLine, startTangent, endTangent };
+    const curvature = discreteCurvature(resampled);
+    return { station, span: resampled, spanLengthMm: length, pivotLine, curvature, startTangent, endTangent };
   });
 }
 

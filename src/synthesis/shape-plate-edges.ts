@@ -1,4 +1,5 @@
 import type { Point } from '../geometry/index.js';
+import { nearestPlate } from './nearest-plate.js';
 import type { PlateChain } from './plate-chain.js';
 
 /**
@@ -38,23 +39,7 @@ export function shapePlateEdges(
   const pieces: { t: number; d: number }[][][] = Array.from({ length: n }, () => samples.map(() => []));
   chain.pivots.forEach((pivots, i) => {
     for (const q of samples[i]!) {
-      let best = Number.POSITIVE_INFINITY;
-      let plate = 0;
-      let bestT = 0;
-      for (let k = 0; k < n; k++) {
-        const a = pivots[k]!;
-        const b = pivots[k + 1]!;
-        const dx = b[0] - a[0];
-        const dy = b[1] - a[1];
-        const l2 = dx * dx + dy * dy;
-        const t = l2 > 0 ? Math.max(0, Math.min(1, ((q[0] - a[0]) * dx + (q[1] - a[1]) * dy) / l2)) : 0;
-        const dist = Math.hypot(a[0] + t * dx - q[0], a[1] + t * dy - q[1]);
-        if (dist < best) {
-          best = dist;
-          plate = k;
-          bestT = t;
-        }
-      }
+      const { plate, t: bestT } = nearestPlate(q, pivots);
       // only points that face the plate's edge (not its round ends) shape it
       if (bestT <= 0 || bestT >= 1) continue;
       const a = pivots[plate]!;

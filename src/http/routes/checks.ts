@@ -1,10 +1,9 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { checkSchedule } from '../../pipeline/index.js';
-import { errorBody } from '../error-catalogue.js';
 import { CheckReportWire, ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { toCheckReport } from '../to-check-report.js';
-import { toSchedule } from '../to-schedule.js';
+import { scheduleOrReject } from '../reject-bad-schedule.js';
 
 /** `POST /v1/checks`: measure every station and report process findings, with safety cautions. */
 export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
@@ -22,20 +21,11 @@ export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
       },
     },
     async (request, reply) => {
-      const mapped = toSchedule(request.body);
-      if (!mapped.ok) {
-        return reply.code(400).send({
-          ...errorBody(
-            'invalid_schedule',
-            'The schedule describes an orifice or a station order the die cannot make.',
-            mapped.problems,
-          ),
-          request_id: request.id,
-        });
-      }
-      const check = checkSchedule(mapped.schedule);
+      const schedule = scheduleOrReject(request.body, request, reply);
+      if (!schedule) return reply;
+      const check = checkSchedule(schedule);
       request.log.info({ stations: check.stations.length, findings: check.findings.length }, 'schedule checked');
-      return toCheckReport(mapped.schedule, check);
+      return toCheckReport(schedule, check);
     },
   );
 };

@@ -8,7 +8,7 @@ import { PlanAcceptedWire, PlanWire } from '../plan-schema.js';
 import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { toPlanReport } from '../to-plan-report.js';
-import { toSchedule } from '../to-schedule.js';
+import { scheduleOrReject } from '../reject-bad-schedule.js';
 
 /**
  * `POST /v1/plans` and `GET /v1/plans/{id}`. The plan is computed before the answer (the job queue comes with the
@@ -27,18 +27,9 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
         },
       },
       async (request, reply) => {
-        const mapped = toSchedule(request.body);
-        if (!mapped.ok) {
-          return reply.code(400).send({
-            ...errorBody(
-              'invalid_schedule',
-              'The schedule describes an orifice or a station order the die cannot make.',
-              mapped.problems,
-            ),
-            request_id: request.id,
-          });
-        }
-        if (mapped.schedule.stations.length < 2) {
+        const schedule = scheduleOrReject(request.body, request, reply);
+        if (!schedule) return reply;
+        if (schedule.stations.length < 2) {
           return reply.code(400).send({
             ...errorBody('invalid_schedule', 'A plan needs at least two stations.', [
               { path: 'stations', message: 'a plan needs at least 2 stations: with one there is nothing to move' },
@@ -47,9 +38,9 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
           });
         }
         const started = performance.now();
-        const plan = planSchedule(mapped.schedule);
+        const plan = planSchedule(schedule);
         const id = randomUUID();
-        store.put({ id, createdAt: now().toISOString(), schedule: mapped.schedule, plan });
+        store.put({ id, createdAt: now().toISOString(), schedule, plan });
         request.log.info(
           { plan: id, status: plan.status, plates: plan.fit?.plateCount, ms: Math.round(performance.now() - started) },
           'plan computed',
