@@ -495,14 +495,6 @@ function splitWorstPlate(
   return { x: y, spec: next };
 }
 
-function segmentDistance(q: Point, a: Point, b: Point): number {
-  const dx = b[0] - a[0];
-  const dy = b[1] - a[1];
-  const l2 = dx * dx + dy * dy;
-  const t = l2 > 0 ? Math.max(0, Math.min(1, ((q[0] - a[0]) * dx + (q[1] - a[1]) * dy) / l2)) : 0;
-  return Math.hypot(a[0] + t * dx - q[0], a[1] + t * dy - q[1]);
-}
-
 /** Levenberg–Marquardt from `x`, then proximal polishing passes that re-tie the end pins where the solve ended. */
 function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFitOptions) {
   const layout = chainLayout(spec);
