@@ -19,7 +19,7 @@ import {
   makeChainProblem,
 } from './chain-problem.js';
 import { equalArcPivots, marchChain } from './march-chain.js';
-import { endPoint, type PlateChain } from './plate-chain.js';
+import { type ChainEnd, endPoint, type PlateChain } from './plate-chain.js';
 import { plateOutline, type PlateShape } from './plate-outline.js';
 import { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
 import { nearestPlate } from './nearest-plate.js';
@@ -143,7 +143,40 @@ export interface ChainFit {
  * @param orifices  target orifices in schedule order (normalised)
  * @param spans     their moving spans (same order)
  */
-export function fitChain(
+export function fitChain(orifices: readonly Region[], spans: readonly MovingSpan[], options: ChainFitOptions): ChainFit {
+  // stations that repeat an earlier one exactly (a periodic schedule returning to its first profile, a dwell) add
+  // nothing to fit: fit the distinct ones and give the repeats the same pose
+  const keys = orifices.map((o, i) => JSON.stringify([o, spans[i]!.path]));
+  const first = keys.map((k) => keys.indexOf(k));
+  const distinct = [...new Set(first)];
+  if (distinct.length === orifices.length || distinct.length < 1) return fitDistinctStations(orifices, spans, options);
+  const fit = fitDistinctStations(
+    distinct.map((i) => orifices[i]!),
+    distinct.map((i) => spans[i]!),
+    options,
+  );
+  const slot = first.map((i) => distinct.indexOf(i));
+  const expandEnd = (end: ChainEnd): ChainEnd =>
+    end.kind === 'pivot' ? end : { ...end, travelMm: slot.map((u) => end.travelMm[u]!) };
+  return {
+    ...fit,
+    chain: {
+      ...fit.chain,
+      start: expandEnd(fit.chain.start),
+      end: expandEnd(fit.chain.end),
+      pivots: slot.map((u) => fit.chain.pivots[u]!),
+      telescoping: fit.chain.telescoping.map((t) => ({
+        ...t,
+        stationLengthsMm: slot.map((u) => t.stationLengthsMm[u]!),
+      })),
+    },
+    plates: slot.map((u) => fit.plates[u]!),
+    stations: slot.map((u, i) => ({ ...fit.stations[u]!, station: i })),
+    findings: fit.findings.map((f) => (f.station === undefined ? f : { ...f, station: distinct[f.station]! })),
+  };
+}
+
+function fitDistinctStations(
   orifices: readonly Region[],
   spans: readonly MovingSpan[],
   options: ChainFitOptions,
