@@ -191,7 +191,7 @@ function fitDistinctStations(
   const extension = e + options.pivotHoleDiameterMm;
   const targets = preparePivotTargets(spans, e, extension, options.sampleSpacingMm);
   const samples = targets.map((t) => t.span);
-  const keepOut = spans.map((span) => keepOutPoints(span, extension + 2 * e + options.minPlateLengthMm, 0.5));
+  const keepOut = spans.map((span) => keepOutPoints(span, extension + 2 * e + options.minPlateLengthMm, 1.0));
   const reach = 3 * (spanExtent(targets) + options.depthMm);
   const openings = spans.map((s) => dieOpening(s.fixed, reach));
 
