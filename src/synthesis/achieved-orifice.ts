@@ -1,77 +1,62 @@
 import {
   differenceRegions,
   intersectRegions,
-  normalizeRegion,
-  type Point,
-  type Polyline,
   type Region,
+  regionArea,
   regionsArea,
   unionRegions,
 } from '../geometry/index.js';
-import { DEFAULT_TOLERANCES } from '../numeric/index.js';
 
 /**
- * The die body's fixed opening: the die-body part of a station's boundary (walked clockwise from the span's end back
- * to its start) with its two end walls carried on straight, away from the melt, by `reachMm`, and closed there. The
- * plates cover whatever of it is not orifice. Walls are continued along the direction of their last `wallSampleMm`.
+ * The die opening as the envelope of every station: the union of their outer boundaries (a mandrel's holes are not
+ * part of the die body's cut). Whatever of it the plates leave uncovered is orifice.
  */
-export function dieOpening(fixed: Polyline, reachMm: number, wallSampleMm = 1.0): Region {
-  const n = fixed.length;
-  const startDir = directionOver(fixed, n - 1, -1, wallSampleMm);
-  const endDir = directionOver(fixed, 0, +1, wallSampleMm);
-  const start = fixed[n - 1]!;
-  const end = fixed[0]!;
-  const ring: Point[] = [
-    ...fixed,
-    [start[0] + startDir[0] * reachMm, start[1] + startDir[1] * reachMm],
-    [end[0] - endDir[0] * reachMm, end[1] - endDir[1] * reachMm],
-  ];
-  // the ring may touch itself where walls converge: a union cleans it into simple rings
-  const cleaned = unionRegions([normalizeRegion({ outer: ring, holes: [] }, DEFAULT_TOLERANCES)]);
-  return cleaned.reduce((a, b) => (regionsArea([b]) > regionsArea([a]) ? b : a));
+export function stationEnvelope(orifices: readonly Region[]): Region {
+  const union = unionRegions(orifices.map((o) => ({ outer: o.outer, holes: [] })));
+  return union.reduce((a, b) => (regionsArea([b]) > regionsArea([a]) ? b : a));
+}
+
+/** What a set of plates leaves open: the piece forming the orifice, and any other piece (melt would leak there). */
+export interface PlateOpening {
+  readonly orifice: Region;
+  /** Pieces of the opening the plates leave uncovered apart from the orifice, mm. */
+  readonly strays: readonly Region[];
 }
 
 /**
- * Unit direction of the polyline at vertex `at`, measured over `sample` mm of it: `step` −1 looks backward (arriving
- * direction), +1 forward (leaving direction).
+ * What a set of plates leaves of the opening: opening − union(plates). The piece that overlaps the target most is the
+ * orifice (less the station's holes, a mandrel); any other piece larger than `strayAreaMm2` is opening the plates
+ * fail to cover, where melt would leak. Empty orifice ring when the plates close the opening completely.
  */
-function directionOver(line: Polyline, at: number, step: 1 | -1, sample: number): Point {
-  const p = line[at]!;
-  let q = p;
-  let walked = 0;
-  for (let i = at + step; i >= 0 && i < line.length; i += step) {
-    const r = line[i]!;
-    walked += Math.hypot(r[0] - q[0], r[1] - q[1]);
-    q = r;
-    if (walked >= sample) break;
-  }
-  const dx = step === -1 ? p[0] - q[0] : q[0] - p[0];
-  const dy = step === -1 ? p[1] - q[1] : q[1] - p[1];
-  const len = Math.hypot(dx, dy);
-  return len > 0 ? [dx / len, dy / len] : [0, 1];
-}
-
-/**
- * The orifice a set of plates leaves: opening − union(plates), keeping the piece that overlaps the target most (pieces
- * cut off behind the plates are steel, not melt channel), less the station's holes (a mandrel). Empty outer ring when
- * the plates close the orifice completely.
- */
-export function achievedOrifice(opening: Region, plates: readonly Region[], target: Region): Region {
+export function plateOpening(
+  opening: Region,
+  plates: readonly Region[],
+  target: Region,
+  strayAreaMm2 = 1e-3,
+): PlateOpening {
   const open = differenceRegions([opening], unionRegions(plates));
-  let best: Region | null = null;
+  let bestIndex = -1;
   let bestArea = 0;
-  for (const piece of open) {
+  open.forEach((piece, i) => {
     const overlap = regionsArea(intersectRegions([piece], [{ outer: target.outer, holes: [] }]));
     if (overlap > bestArea) {
       bestArea = overlap;
-      best = piece;
+      bestIndex = i;
     }
-  }
-  if (!best) return { outer: [], holes: [] };
-  if (target.holes.length === 0) return best;
+  });
+  const strays = open.filter((piece, i) => i !== bestIndex && regionArea(piece) > strayAreaMm2);
+  const best = open[bestIndex];
+  if (!best) return { orifice: { outer: [], holes: [] }, strays };
+  if (target.holes.length === 0) return { orifice: best, strays };
   const withHoles = differenceRegions(
     [best],
     target.holes.map((h) => ({ outer: [...h].reverse(), holes: [] })),
   );
-  return withHoles.reduce((a, b) => (regionsArea([b]) > regionsArea([a]) ? b : a), withHoles[0] ?? best);
+  const orifice = withHoles.reduce((a, b) => (regionArea(b) > regionArea(a) ? b : a), withHoles[0] ?? best);
+  return { orifice, strays };
+}
+
+/** The orifice alone (see `plateOpening`). */
+export function achievedOrifice(opening: Region, plates: readonly Region[], target: Region): Region {
+  return plateOpening(opening, plates, target).orifice;
 }

@@ -1,5 +1,6 @@
 import type { Finding } from '../domain/index.js';
 import {
+  closestPointOnPolyline,
   type Point,
   pointInRegion,
   type Region,
@@ -9,7 +10,7 @@ import {
 } from '../geometry/index.js';
 import { DEFAULT_TOLERANCES, type LeastSquaresResult, solveLeastSquares } from '../numeric/index.js';
 import type { MovingSpan } from '../span/index.js';
-import { achievedOrifice, dieOpening } from './achieved-orifice.js';
+import { plateOpening, stationEnvelope } from './achieved-orifice.js';
 import {
   type ChainProblemSpec,
   chainFromParameters,
@@ -85,6 +86,8 @@ export interface StationFit {
   readonly station: number;
   readonly targetOrifice: Region;
   readonly achievedOrifice: Region;
+  /** Pieces of the die opening the plates leave uncovered apart from the orifice (melt would leak there), mm. */
+  readonly uncovered: readonly Region[];
   /** Symmetric Hausdorff distance between the target and achieved boundaries, mm. */
   readonly maxDeviationMm: number;
   /** Where the largest deviation is: the target point and the achieved point, mm. */
@@ -143,7 +146,11 @@ export interface ChainFit {
  * @param orifices  target orifices in schedule order (normalised)
  * @param spans     their moving spans (same order)
  */
-export function fitChain(orifices: readonly Region[], spans: readonly MovingSpan[], options: ChainFitOptions): ChainFit {
+export function fitChain(
+  orifices: readonly Region[],
+  spans: readonly MovingSpan[],
+  options: ChainFitOptions,
+): ChainFit {
   // stations that repeat an earlier one exactly (a periodic schedule returning to its first profile, a dwell) add
   // nothing to fit: fit the distinct ones and give the repeats the same pose
   const keys = orifices.map((o, i) => JSON.stringify([o, spans[i]!.path]));
@@ -192,8 +199,9 @@ function fitDistinctStations(
   const targets = preparePivotTargets(spans, e, extension, options.sampleSpacingMm);
   const samples = targets.map((t) => t.span);
   const keepOut = spans.map((span) => keepOutPoints(span, extension + 2 * e + options.minPlateLengthMm, 1.0));
-  const reach = 3 * (spanExtent(targets) + options.depthMm);
-  const openings = spans.map((s) => dieOpening(s.fixed, reach));
+  // the die opening is the envelope of every station: what the plates leave of it is orifice (or a leak)
+  const envelope = stationEnvelope(orifices);
+  const openings = spans.map(() => envelope);
 
   const march = marchChain(
     targets.map((t) => t.pivotLine),
@@ -340,10 +348,21 @@ function fitDistinctStations(
   const { fits, plates, edges } = final.evaluation ?? evaluateChain(chain, orifices, openings, shape);
   const chosen = spec.plateCount;
   const { startKind, endKind } = spec;
-  const findings = fitFindings(chain, fits, orifices, status, options, startKind, endKind, spans);
+  // a telescoping plate that ended up the same length everywhere is just a rigid plate
+  const rigidified: PlateChain = {
+    ...chain,
+    lengthsMm: chain.lengthsMm.map((l, k) => {
+      const t = chain.telescoping.find((x) => x.plate === k);
+      return t ? t.stationLengthsMm.reduce((a, b) => a + b, 0) / t.stationLengthsMm.length : l;
+    }),
+    telescoping: chain.telescoping.filter(
+      (t) => Math.max(...t.stationLengthsMm) - Math.min(...t.stationLengthsMm) > RIGID_STROKE_MM,
+    ),
+  };
+  const findings = fitFindings(rigidified, fits, orifices, status, options, startKind, endKind, spans);
   return {
     status,
-    chain,
+    chain: rigidified,
     plateCount: chosen,
     shape,
     plates,
@@ -386,22 +405,6 @@ function slotEnd(targets: readonly PivotTarget[]): { startKind: EndKind; endKind
   return angleSpread((t) => t.startTangent) < angleSpread((t) => t.endTangent)
     ? { startKind: 'slot', endKind: 'pivot' }
     : { startKind: 'pivot', endKind: 'slot' };
-}
-
-function spanExtent(targets: readonly PivotTarget[]): number {
-  let minX = Number.POSITIVE_INFINITY;
-  let minY = Number.POSITIVE_INFINITY;
-  let maxX = Number.NEGATIVE_INFINITY;
-  let maxY = Number.NEGATIVE_INFINITY;
-  for (const t of targets) {
-    for (const [x, y] of t.pivotLine) {
-      minX = Math.min(minX, x);
-      minY = Math.min(minY, y);
-      maxX = Math.max(maxX, x);
-      maxY = Math.max(maxY, y);
-    }
-  }
-  return Math.hypot(maxX - minX, maxY - minY);
 }
 
 /** Builds the start vector for n plates and runs the least-squares refinement. */
@@ -630,6 +633,9 @@ function edgeSampleWeights(chain: PlateChain, samples: readonly (readonly Point[
   );
 }
 
+/** A telescoping plate whose length changes less than this between stations is reported rigid, mm. */
+const RIGID_STROKE_MM = 1e-3;
+
 /** Shaped edges are tried on chains whose straight-edge samples miss by up to this much, mm. */
 const SHAPED_REACH_MM = 1;
 
@@ -665,13 +671,16 @@ function evaluateChain(
     }
     plates.push(stationPlates);
     const target = orifices[i]!;
-    const achieved = achievedOrifice(openings[i]!, stationPlates, target);
+    // pins fill the pivot holes: the plates cover the opening with their outlines
+    const covers = stationPlates.map((p) => ({ outer: p.outer, holes: [] }));
+    const { orifice: achieved, strays } = plateOpening(openings[i]!, covers, target);
     const targetArea = regionArea(target);
     if (achieved.outer.length < 3) {
       return {
         station: i,
         targetOrifice: target,
         achievedOrifice: achieved,
+        uncovered: strays,
         maxDeviationMm: Number.POSITIVE_INFINITY,
         worstTarget: target.outer[0]!,
         worstAchieved: target.outer[0]!,
@@ -680,15 +689,25 @@ function evaluateChain(
       };
     }
     const h = regionBoundaryHausdorff(target, achieved);
+    let worst = { distance: h.distance, target: h.fromA, achieved: h.toB };
+    // uncovered opening away from the orifice leaks melt: it counts by how far it lies from the target
+    for (const stray of strays) {
+      for (const v of stray.outer) {
+        const near = closestPointOnPolyline(v, target.outer, true);
+        if (near.distance > worst.distance) worst = { distance: near.distance, target: near.point, achieved: v };
+      }
+    }
+    const strayArea = strays.reduce((sum, r) => sum + regionArea(r), 0);
     return {
       station: i,
       targetOrifice: target,
       achievedOrifice: achieved,
-      maxDeviationMm: h.distance,
-      worstTarget: h.fromA,
-      worstAchieved: h.toB,
-      symmetricDifferenceMm2: symmetricDifferenceArea([target], [achieved]),
-      areaErrorPct: ((regionArea(achieved) - targetArea) / targetArea) * 100,
+      uncovered: strays,
+      maxDeviationMm: worst.distance,
+      worstTarget: worst.target,
+      worstAchieved: worst.achieved,
+      symmetricDifferenceMm2: symmetricDifferenceArea([target], [achieved]) + strayArea,
+      areaErrorPct: ((regionArea(achieved) + strayArea - targetArea) / targetArea) * 100,
     };
   });
   return { fits, plates, worst: Math.max(...fits.map((f) => f.maxDeviationMm)), edges };
@@ -734,6 +753,19 @@ function fitFindings(
         break;
       }
     }
+  }
+  for (const f of fits) {
+    if (f.uncovered.length === 0) continue;
+    const piece = f.uncovered[0]!;
+    const at = piece.outer[0]!;
+    findings.push({
+      code: 'UNCOVERED_OPENING',
+      severity: 'error',
+      station: f.station,
+      value: f.uncovered.reduce((sum, r) => sum + regionArea(r), 0),
+      at,
+      message: `At station ${f.station} the plates leave ${f.uncovered.length} piece(s) of the die opening uncovered apart from the orifice (near (${fmt(at[0])}, ${fmt(at[1])}) mm); melt would leak there. Deeper plates (plates.depth_mm) or more plates would cover it.`,
+    });
   }
   for (const t of chain.telescoping) {
     const stroke = Math.max(...t.stationLengthsMm) - Math.min(...t.stationLengthsMm);

@@ -14,8 +14,10 @@ export interface PlateShape {
 /**
  * Outline of a straight plate between pivots `a` and `b` (die-body frame, mm): its melt edge runs parallel to a→b at
  * e on the right (the melt side of a span walked clockwise), with ends that are arcs of radius e centred on the
- * pivots, so neighbouring plates seal against each other at any relative angle (DOMAIN.md §2); the body extends to
- * `depthMm` from the melt edge on the left; two pivot holes. Outer ring counter-clockwise, holes clockwise.
+ * pivots, so neighbouring plates seal against each other at any relative angle (DOMAIN.md §2); on the body side each
+ * end fans out by 45° round its pivot to the full depth, so neighbours (on alternate layers) still overlap behind the
+ * pivot when the chain bends away from the body by up to 45° and no wedge of die opening opens between them; two
+ * pivot holes. Outer ring counter-clockwise, holes clockwise.
  *
  * @param edge a shaped melt edge in the plate frame (see `shapePlateEdges`); null for the straight edge at e.
  */
@@ -27,28 +29,28 @@ export function plateOutline(a: Point, b: Point, shape: PlateShape, edge: readon
   const u: Point = len > 0 ? [dx / len, dy / len] : [1, 0];
   const left: Point = [-u[1], u[0]];
   const back = Math.max(shape.depthMm - e, e);
-  const angleLeft = Math.atan2(left[1], left[0]);
+  const forward = Math.atan2(u[1], u[0]);
+  const tol = shape.arcToleranceMm;
+  const fan = BODY_FAN_RAD;
   const outer: Point[] = [];
-  // around b from the left normal, through forward, to the right normal (clockwise in angle = −π)
-  outer.push(...arc(b, e, angleLeft, angleLeft - Math.PI, shape.arcToleranceMm));
-  // a shaped melt edge, given in the plate frame (s along a→b, d toward the body), from b's end back to a's
+  // counter-clockwise from the melt side: the round end of radius e round b from the right normal past forward to
+  // the fan angle, out to the body radius, round to the left normal; the back edge; the same round a in mirror
+  outer.push(...arc(b, e, forward - Math.PI / 2, forward + Math.PI / 2 - fan, tol));
+  outer.push(...arc(b, back, forward + Math.PI / 2 - fan, forward + Math.PI / 2, tol));
+  outer.push(...arc(a, back, forward + Math.PI / 2, forward + Math.PI / 2 + fan, tol));
+  outer.push(...arc(a, e, forward + Math.PI / 2 + fan, forward + (3 * Math.PI) / 2, tol));
+  // a shaped melt edge, given in the plate frame (s along a→b, d toward the body), from a's end to b's
   if (edge) {
-    for (let j = edge.length - 1; j >= 0; j--) {
-      const [s, d] = edge[j]!;
-      outer.push([a[0] + u[0] * s + left[0] * d, a[1] + u[1] * s + left[1] * d]);
-    }
+    for (const [along, d] of edge) outer.push([a[0] + u[0] * along + left[0] * d, a[1] + u[1] * along + left[1] * d]);
   }
-  // around a from the right normal, through backward, to the left normal
-  outer.push(...arc(a, e, angleLeft - Math.PI, angleLeft - 2 * Math.PI, shape.arcToleranceMm));
-  outer.push([a[0] + left[0] * back, a[1] + left[1] * back]);
-  outer.push([b[0] + left[0] * back, b[1] + left[1] * back]);
-  // that ring runs clockwise; reverse to counter-clockwise
-  outer.reverse();
   return {
     outer,
     holes: [circle(a, shape.holeRadiusMm, shape.arcToleranceMm), circle(b, shape.holeRadiusMm, shape.arcToleranceMm)],
   };
 }
+
+/** How far each body end fans round its pivot from the left normal toward the plate's own axis, radians. */
+const BODY_FAN_RAD = Math.PI / 4;
 
 /** Points on an arc from angle `from` to `to` (either direction), both ends included, chord error ≤ tol. */
 function arc(c: Point, r: number, from: number, to: number, tol: number): Point[] {

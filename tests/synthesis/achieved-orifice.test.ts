@@ -106,19 +106,13 @@ describe('the achieved orifice of a fitted known chain', () => {
   });
 
   it('achievedOrifice agrees with polygon-clipping (opening − plates, the piece on the target) to 1e-3 mm² per 100 mm²', () => {
-    // reference: polygon-clipping 0.15.7 (Martinez–Rueda sweep line in floating point) on an opening built here from
-    // the channel's known walls, [0, WIDTH] × [0, 200] (above the plates' 25 mm depth, so the piece under the plates is
-    // the same as for src's die opening). src clips with clipper-lib on an integer grid of 1e-4 mm (CLIPPER_SCALE): each
-    // vertex moves up to 0.5e-4 mm per axis, which changes the area by a few 1e-4 mm² over a ~150 mm boundary; 1e-3 mm²
-    // per 100 mm² of orifice bounds that with room to spare and still catches a lost sliver or a wrong piece.
-    const opening: Polygon = [
-      [
-        [0, 0],
-        [WIDTH, 0],
-        [WIDTH, 200],
-        [0, 200],
-      ],
-    ];
+    // reference: polygon-clipping 0.15.7 (Martinez–Rueda sweep line in floating point): the die opening as the union
+    // of every station's orifice (the envelope the die body is cut to), less the plate outlines (pins fill the pivot
+    // holes). src clips with clipper-lib on an integer grid of 1e-4 mm (CLIPPER_SCALE): each vertex moves up to
+    // 0.5e-4 mm per axis, which changes the area by a few 1e-4 mm² over a ~150 mm boundary; 1e-3 mm² per 100 mm² of
+    // orifice bounds that with room to spare and still catches a lost sliver or a wrong piece.
+    const [first, ...rest] = orifices.map((o): Polygon => [toPc(o.outer)]);
+    const opening = pc.union(first!, ...rest);
     fit.stations.forEach((station, i) => {
       const plates = fit.plates[i]!.map((plate): Polygon => [toPc(plate.outer)]);
       const pieces = pc.difference(opening, ...plates);
@@ -143,12 +137,11 @@ describe('the achieved orifice of a fitted known chain', () => {
   });
 
   it('plateOutline gives a simple counter-clockwise ring with the area of body plus stadium, within the arc tolerance', () => {
-    // reference [derived] from the outline plateOutline documents: half-discs of radius e round both pivots on the
-    // ends, the melt edge at e on the right of a→b, the body out to `back` = max(depth − e, e) on the left. That is the
-    // rectangle L × (e + back) plus two half-discs, A = L·(e + back) + π·e² (for depth ≥ 2e: body L×(depth − e) ∪
-    // stadium L·2e + π·e², overlapping in L×e). The arcs are polygonised with vertices on the circle, so the ring's
-    // area is smaller by the chords' circular segments: 0 ≤ A − A_ring ≤ 2π·e·arcTolerance (each segment is thinner
-    // than the tolerance along its chord, and the chords are shorter than the two half-circles, 2π·e in all).
+    // reference [derived] from the outline plateOutline documents: at each pivot a sector of radius e over 135° (from
+    // the melt-side normal round the end to 45° short of the body-side normal) and a sector of radius back =
+    // max(depth − e, e) over the last 45°, with the rectangle L × (e + back) between the pivots:
+    // A = L·(e + back) + 2·(½·e²·3π/4 + ½·back²·π/4). The arcs are polygonised with vertices on the circle, so the
+    // ring's area is smaller by the chords' circular segments: 0 ≤ A − A_ring ≤ tol·(arc lengths) ≤ tol·π(1.5e + 0.5back).
     const { edgeOffsetMm: e, depthMm, arcToleranceMm } = fit.shape;
     const back = Math.max(depthMm - e, e);
     for (const pivots of fit.chain.pivots) {
@@ -160,13 +153,9 @@ describe('the achieved orifice of a fitted known chain', () => {
         const area = shoelace(ring);
         expect(area).toBeGreaterThan(0);
         expect(isSimple(ring)).toBe(true);
-        const analytic = length * (e + back) + Math.PI * e * e;
+        const analytic = length * (e + back) + e * e * ((3 * Math.PI) / 4) + back * back * (Math.PI / 4);
         expect(analytic - area).toBeGreaterThanOrEqual(-1e-9);
-        expect(analytic - area).toBeLessThanOrEqual(2 * Math.PI * e * arcToleranceMm);
-        // [derived] exactly: each half-circle of s chords is a fan of s isosceles triangles, (s/2)·e²·sin(π/s) — the
-        // ring holds 2(s + 1) arc vertices and the two body corners
-        const s = (ring.length - 4) / 2;
-        expect(area).toBeCloseTo(length * (e + back) + s * e * e * Math.sin(Math.PI / s), 9);
+        expect(analytic - area).toBeLessThanOrEqual(Math.PI * (1.5 * e + 0.5 * back) * arcToleranceMm);
       }
     }
   });
