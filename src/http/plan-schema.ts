@@ -73,6 +73,30 @@ export const ChainWire = z.object({
   ),
 });
 
+export const MechanisationWire = z.object({
+  status: z.enum(['mechanised', 'no-mechanism']),
+  mode: z
+    .enum(['direct', 'reduced'])
+    .nullable()
+    .describe('direct: one actuator per degree of freedom; reduced: binary links take up the rest'),
+  requested_actuators: z.number().int(),
+  chain_degrees_of_freedom: z.number().int(),
+  smallest_actuator_count: z.number().int().nullable().describe('fewest actuators found to work'),
+  distinct_positions: z.number().int(),
+  synthesis: z.string().describe('how the binary links were synthesised (Burmester theory by position count)'),
+  ground_pivot_rule: z.string(),
+  layer_model: z.string(),
+  link_count: z.number().int(),
+  mobility: z.object({ grubler: z.number().int(), numerical: z.number().int() }).nullable(),
+  transmission_angle_deg: z.object({ min: z.number().nullable(), max: z.number().nullable() }),
+  stations: z.array(
+    z.object({
+      residual_mm: z.number().describe('driven pivots vs fitted pivots'),
+      deviation_mm: z.number().describe('achieved orifice of the driven mechanism vs target'),
+    }),
+  ),
+});
+
 export const PlanWire = z.object({
   id: z.string(),
   name: z.string(),
@@ -83,6 +107,7 @@ export const PlanWire = z.object({
   cautions: z.array(CautionWire),
   stations: z.array(PlanStationWire),
   chain: ChainWire.nullable(),
+  mechanisation: MechanisationWire.nullable(),
   mechanism: MechanismWire.nullable(),
 });
 

@@ -10,14 +10,16 @@ const regionMm = (r: Region) => ({ outer: r.outer.map(pointMm), holes: r.holes.m
 export function toPlanReport(record: PlanRecord): PlanReport {
   const { plan, schedule } = record;
   const fit = plan.fit;
+  const driven = plan.mechanisation?.status === 'mechanised' ? plan.mechanisation : null;
   const stations = fit
     ? fit.stations.map((s, i) => ({
         index: i,
         position_m: schedule.stations[i]!.positionM,
         target_orifice: regionMm(s.targetOrifice),
-        achieved_orifice: regionMm(s.achievedOrifice),
+        // computed from the assembled mechanism when there is one, else from the fitted chain
+        achieved_orifice: regionMm(driven?.stations[i]?.achievedOrifice ?? s.achievedOrifice),
         fit: {
-          max_deviation_mm: mm(s.maxDeviationMm),
+          max_deviation_mm: mm(driven?.stations[i]?.deviationMm ?? s.maxDeviationMm),
           area_error_pct: sig(s.areaErrorPct),
           symmetric_difference_mm2: mm(s.symmetricDifferenceMm2),
           worst_target_mm: pointMm(s.worstTarget),
@@ -65,6 +67,31 @@ export function toPlanReport(record: PlanRecord): PlanReport {
             max_sample_residual_mm: mm(a.maxSampleResidualMm),
             closure_gap_mm: mm(a.closureGapMm),
             max_deviation_mm: a.maxDeviationMm === null ? null : mm(a.maxDeviationMm),
+          })),
+        }
+      : null,
+    mechanisation: plan.mechanisation
+      ? {
+          status: plan.mechanisation.status,
+          mode: plan.mechanisation.mode,
+          requested_actuators: plan.mechanisation.requestedActuators,
+          chain_degrees_of_freedom: plan.mechanisation.chainDegreesOfFreedom,
+          smallest_actuator_count: plan.mechanisation.smallestActuatorCount,
+          distinct_positions: plan.mechanisation.distinctPositions,
+          synthesis: plan.mechanisation.synthesis,
+          ground_pivot_rule: plan.mechanisation.groundPivotRule,
+          layer_model: plan.mechanisation.layerModel,
+          link_count: plan.mechanisation.links.length,
+          mobility: plan.mechanisation.mobility
+            ? { grubler: plan.mechanisation.mobility.grubler, numerical: plan.mechanisation.mobility.numerical }
+            : null,
+          transmission_angle_deg: {
+            min: plan.mechanisation.transmission.minDeg === null ? null : sig(plan.mechanisation.transmission.minDeg),
+            max: plan.mechanisation.transmission.maxDeg === null ? null : sig(plan.mechanisation.transmission.maxDeg),
+          },
+          stations: plan.mechanisation.stations.map((s) => ({
+            residual_mm: sig(s.residualMm),
+            deviation_mm: mm(s.deviationMm),
           })),
         }
       : null,

@@ -31,8 +31,8 @@ export interface PlanMechanism {
 /**
  * The fitted chain as a mechanism: the die body, one body per plate (alternating layers 1 and 2, so neighbours
  * overlap at their pivots) and two for a telescoping pair, a slider block for a slotted end, revolute joints at every
- * pivot and prismatic joints for a slot or a telescoping pair (its station position is the pair's midpoint). No actuators yet: choosing binary links and actuators is the mechanisation stage; until then the plan
- * says how many degrees of freedom remain.
+ * pivot and prismatic joints for a slot or a telescoping pair (its station position is the pair's midpoint). The plan shows
+ * this, without actuators, when mechanisation finds no way to drive the chain.
  */
 export function chainMechanism(fit: ChainFit): PlanMechanism {
   const n = fit.plateCount;
@@ -95,10 +95,10 @@ export function chainMechanism(fit: ChainFit): PlanMechanism {
   const mobility = 3 * (bodies.length - 1) - 2 * joints.length;
   const findings: Finding[] = [
     {
-      code: 'ACTUATORS_NOT_ASSIGNED',
+      code: 'CHAIN_NOT_DRIVEN',
       severity: 'info',
       value: mobility,
-      message: `The fitted chain has ${mobility} degree(s) of freedom; binary links and actuators that drive it through every station are chosen by the mechanisation stage, which this plan does not include yet.`,
+      message: `The mechanism shown is the fitted chain alone, with ${mobility} degree(s) of freedom and no actuators: no set of binary links and actuators passed the checks (see the other findings).`,
     },
   ];
   return { mobility, bodies, joints, actuators: [], findings };

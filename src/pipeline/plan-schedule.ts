@@ -1,6 +1,7 @@
 import type { Caution, Finding, Schedule } from '../domain/index.js';
 import { type ChainFit, fitChain, resolveChainFitOptions } from '../synthesis/index.js';
 import { type ScheduleCheck, checkSchedule } from './check-schedule.js';
+import { type MechanisationResult, mechaniseChain } from '../mechanise/index.js';
 import { chainMechanism, type PlanMechanism } from './chain-mechanism.js';
 
 /** A plan: the check, the fitted chain and the mechanism built from it, or why it stopped. */
@@ -10,13 +11,17 @@ export interface Plan {
   readonly error: string | null;
   readonly check: ScheduleCheck;
   readonly fit: ChainFit | null;
+  /** Binary links and actuators that drive the chain through every station, or why none were found. */
+  readonly mechanisation: MechanisationResult | null;
+  /** The mechanism the plan reports: the mechanised one, or else the bare chain with its degrees of freedom. */
   readonly mechanism: PlanMechanism | null;
   readonly findings: readonly Finding[];
   readonly cautions: readonly Caution[];
 }
 
 /**
- * request → validated schedule → profile checks → chain fit → mechanism. Pure and synchronous; a plan whose stations
+ * request → validated schedule → profile checks → chain fit → mechanisation (binary links and actuators, proved by
+ * driving the mechanism through every station). Pure and synchronous; a plan whose stations
  * cannot be reconciled into one moving span, or with fewer than two stations, fails with the reason and the check's
  * findings.
  */
@@ -43,17 +48,26 @@ export function planSchedule(schedule: Schedule): Plan {
       depthMm: schedule.plates.depthMm,
     }),
   );
-  const mechanism = chainMechanism(fit);
+  const mechanisation = mechaniseChain(fit, {
+    actuatorCount: schedule.actuators.count,
+    periodic: schedule.repeatLengthM !== null,
+    fitToleranceMm: schedule.limits.fitToleranceMm,
+  });
+  const bare = chainMechanism(fit);
+  const mechanism: PlanMechanism = mechanisation.mechanism
+    ? { ...mechanisation.mechanism, findings: [] }
+    : { ...bare, findings: [] };
   return {
     status: 'done',
     error: null,
     ...base,
     fit,
+    mechanisation,
     mechanism,
-    findings: [...check.findings, ...fit.findings, ...mechanism.findings],
+    findings: [...check.findings, ...fit.findings, ...mechanisation.findings],
   };
 }
 
 function failed(base: Pick<Plan, 'check' | 'cautions'>, findings: readonly Finding[], error: string): Plan {
-  return { status: 'failed', error, ...base, fit: null, mechanism: null, findings };
+  return { status: 'failed', error, ...base, fit: null, mechanisation: null, mechanism: null, findings };
 }

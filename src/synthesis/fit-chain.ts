@@ -21,7 +21,7 @@ import {
 } from './chain-problem.js';
 import { equalArcPivots, marchChain } from './march-chain.js';
 import { type ChainEnd, endPoint, type PlateChain } from './plate-chain.js';
-import { plateOutline, type PlateShape } from './plate-outline.js';
+import { pivotFans, plateOutline, type PlateShape } from './plate-outline.js';
 import { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
 import { nearestPlate } from './nearest-plate.js';
 import { type EdgeProfile, shapePlateEdges } from './shape-plate-edges.js';
@@ -664,10 +664,12 @@ function evaluateChain(
   edges: readonly (EdgeProfile | null)[] | null = null,
 ) {
   const plates: Region[][] = [];
+  const fans = pivotFans(chain.pivots);
   const fits: StationFit[] = chain.pivots.map((pivots, i) => {
     const stationPlates: Region[] = [];
     for (let k = 0; k + 1 < pivots.length; k++) {
-      stationPlates.push(plateOutline(pivots[k]!, pivots[k + 1]!, shape, edges?.[k] ?? null));
+      const fan = { atA: fans[k]!, atB: fans[k + 1]! };
+      stationPlates.push(plateOutline(pivots[k]!, pivots[k + 1]!, shape, edges?.[k] ?? null, fan));
     }
     plates.push(stationPlates);
     const target = orifices[i]!;

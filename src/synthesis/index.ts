@@ -1,6 +1,6 @@
 export { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
 export { type ChainEnd, type PlateChain, endPoint } from './plate-chain.js';
-export { type PlateShape, plateOutline } from './plate-outline.js';
+export { type PlateShape, pivotFans, plateOutline } from './plate-outline.js';
 export { achievedOrifice, type PlateOpening, plateOpening, stationEnvelope } from './achieved-orifice.js';
 export { type EdgeProfile, type EdgeShapeOptions, shapePlateEdges } from './shape-plate-edges.js';
 export { type MarchResult, marchChain, equalArcPivots } from './march-chain.js';

@@ -54,6 +54,17 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
       if (plan.chain.telescoping.length === 0) for (const l of lengths) expect(l).toBeCloseTo(lengths[0], 3);
     }
     expect(plan.cautions.length).toBeGreaterThan(3);
+    // one actuator asked for: either a mechanism with mobility 1 by count and rank, or the reason and the fewest that work
+    const mech = plan.mechanisation;
+    expect(mech.requested_actuators).toBe(1);
+    if (mech.status === 'mechanised') {
+      expect(m.actuators).toHaveLength(1);
+      expect(mech.mobility).toEqual({ grubler: 1, numerical: 1 });
+    } else {
+      expect(plan.findings.some((f: { code: string }) => f.code === 'NO_MECHANISM')).toBe(true);
+      expect(mech.smallest_actuator_count).toBeGreaterThan(1);
+      expect(mech.smallest_actuator_count).toBeLessThanOrEqual(mech.chain_degrees_of_freedom);
+    }
   });
 
   it('stores a failed plan with its reason when the stations cannot be reconciled', async () => {

@@ -137,11 +137,11 @@ describe('the achieved orifice of a fitted known chain', () => {
   });
 
   it('plateOutline gives a simple counter-clockwise ring with the area of body plus stadium, within the arc tolerance', () => {
-    // reference [derived] from the outline plateOutline documents: at each pivot a sector of radius e over 135° (from
-    // the melt-side normal round the end to 45° short of the body-side normal) and a sector of radius back =
-    // max(depth − e, e) over the last 45°, with the rectangle L × (e + back) between the pivots:
-    // A = L·(e + back) + 2·(½·e²·3π/4 + ½·back²·π/4). The arcs are polygonised with vertices on the circle, so the
-    // ring's area is smaller by the chords' circular segments: 0 ≤ A − A_ring ≤ tol·(arc lengths) ≤ tol·π(1.5e + 0.5back).
+    // reference [derived] from the outline plateOutline documents (no body fans): half-discs of radius e round both
+    // pivots, the melt edge at e on the right of a→b, the body out to back = max(depth − e, e) on the left. That is
+    // the rectangle L × (e + back) plus two half-discs, A = L·(e + back) + π·e². The arcs are polygonised with vertices
+    // on the circle, so the ring's area is smaller by the chords' circular segments: 0 ≤ A − A_ring ≤ 2π·e·tolerance
+    // (each segment is thinner than the tolerance along its chord, and the chords are shorter than the half-circles).
     const { edgeOffsetMm: e, depthMm, arcToleranceMm } = fit.shape;
     const back = Math.max(depthMm - e, e);
     for (const pivots of fit.chain.pivots) {
@@ -153,9 +153,9 @@ describe('the achieved orifice of a fitted known chain', () => {
         const area = shoelace(ring);
         expect(area).toBeGreaterThan(0);
         expect(isSimple(ring)).toBe(true);
-        const analytic = length * (e + back) + e * e * ((3 * Math.PI) / 4) + back * back * (Math.PI / 4);
+        const analytic = length * (e + back) + Math.PI * e * e;
         expect(analytic - area).toBeGreaterThanOrEqual(-1e-9);
-        expect(analytic - area).toBeLessThanOrEqual(Math.PI * (1.5 * e + 0.5 * back) * arcToleranceMm);
+        expect(analytic - area).toBeLessThanOrEqual(2 * Math.PI * e * arcToleranceMm);
       }
     }
   });

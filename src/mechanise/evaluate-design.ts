@@ -1,0 +1,48 @@
+import type { Mechanism, Pose } from '../kinematics/index.js';
+import { buildMechanism, linkJointIds, posesAt } from './build-mechanism.js';
+import { driveThroughStations, type MotionCheck } from './drive-through-stations.js';
+import type { LinkDesign } from './link-design.js';
+import type { MechaniseContext } from './mechanise-context.js';
+
+/** A mechanism (whole or partial) with its expected station configurations and how driving it went. */
+export interface EvaluatedDesign {
+  readonly links: readonly LinkDesign[];
+  readonly actuatorJoints: readonly string[];
+  readonly mechanism: Mechanism;
+  /** Expected configuration at each distinct position, actuator values included. */
+  readonly expected: readonly Pose[];
+  readonly motion: MotionCheck;
+}
+
+/** Where an actuator acts: a chain joint by id, or the ground pivot of one of the design's links (a crank). */
+export type ActuatorPlace = string | LinkDesign;
+
+/**
+ * Builds the mechanism of `links` and `actuators` on the chain (or on the chain bodies in `chainBodies` only),
+ * places it at every distinct position and drives it through the legs of the schedule (`driveThroughStations`).
+ * Links are renamed `link_1`, `link_2`, … in the order given.
+ */
+export function evaluateDesign(
+  context: MechaniseContext,
+  links: readonly LinkDesign[],
+  actuators: readonly ActuatorPlace[],
+  chainBodies?: ReadonlySet<string>,
+): EvaluatedDesign {
+  const { topology, stations, options } = context;
+  const named = links.map((l, k) => ({ ...l, id: `link_${k + 1}` }));
+  const actuatorJoints = actuators.map((a) => {
+    if (typeof a === 'string') return a;
+    const k = links.indexOf(a);
+    if (k < 0) throw new Error('evaluateDesign: an actuator names a link that is not in the design');
+    return linkJointIds(named[k]!).a;
+  });
+  const distinctPoses = stations.representatives.map((r) => stations.poses[r]!);
+  const mechanism = buildMechanism(topology, named, actuatorJoints, distinctPoses[0]!, chainBodies);
+  const expected = posesAt(mechanism, topology, distinctPoses);
+  const motion = driveThroughStations(expected, context.legs, {
+    trace: options.trace,
+    arrivalToleranceMm: context.arrivalToleranceMm,
+    transmissionLimitDeg: options.transmissionLimitDeg,
+  });
+  return { links: named, actuatorJoints, mechanism, expected, motion };
+}
