@@ -45,7 +45,7 @@ export interface ChainFitOptions {
   readonly plateCount: number | null;
   /** May an end pin run in a slot when pinned ends cannot follow the stations? @default true */
   readonly allowSlots: boolean;
-  /** May one plate telescope when neither pinned nor slotted ends can? @default true */
+  /** May one plate telescope when pinned ends cannot follow the stations and no slot may be used? @default true */
   readonly allowTelescoping: boolean;
   /** May plates carry shaped edges (common to all stations) when straight edges miss? @default true */
   readonly shapedEdges: boolean;
@@ -239,7 +239,9 @@ function fitDistinctStations(
   const forms: ChainForm[] = [pinned];
   const slotted = options.allowSlots ? slotEnd(targets) : null;
   if (slotted) forms.push({ ...slotted, telescoping: [] });
-  if (options.allowTelescoping && targets.length > 1 && lowest >= 3) {
+  // a slotted end takes up differences in span length more simply than a telescoping pair; telescoping plates are
+  // tried where no slot may be used
+  if (options.allowTelescoping && !slotted && targets.length > 1 && lowest >= 3) {
     for (const k of telescopingCandidates(targets, lowest).slice(0, 3)) forms.push({ ...pinned, telescoping: [k] });
   }
 
