@@ -1,32 +1,9 @@
 import type { Finding } from '../domain/index.js';
-import type { Point } from '../geometry/index.js';
+import type { MechanismReport } from '../mechanise/index.js';
 import { type ChainEnd, type ChainFit, endPoint } from '../synthesis/index.js';
 
-/** The mechanism as the plan reports it: bodies, joints with their place at every station, actuators. */
-export interface PlanMechanism {
-  /** Grübler–Kutzbach mobility M = 3(n − 1) − 2·j₁ (every joint here is a lower pair). */
-  readonly mobility: number;
-  readonly bodies: readonly {
-    readonly id: string;
-    readonly kind: 'die_body' | 'plate' | 'link';
-    readonly layer: number;
-  }[];
-  readonly joints: readonly {
-    readonly id: string;
-    readonly type: 'revolute' | 'prismatic';
-    readonly bodies: readonly [string, string];
-    /** Joint point in the die-body frame at each station, mm. */
-    readonly stationPositions: readonly Point[];
-  }[];
-  readonly actuators: readonly {
-    readonly id: string;
-    readonly joint: string;
-    readonly kind: 'rotary' | 'linear';
-    /** Degrees (rotary) or mm (linear) at each station. */
-    readonly stationValues: readonly number[];
-  }[];
-  readonly findings: readonly Finding[];
-}
+/** The mechanism as the plan reports it: the same shape the mechanisation stage returns. */
+export type PlanMechanism = MechanismReport;
 
 /**
  * The fitted chain as a mechanism: the die body, one body per plate (alternating layers 1 and 2, so neighbours
