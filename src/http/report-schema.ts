@@ -49,7 +49,12 @@ export const StationCheckWire = z.object({
   swollen_area_mm2: z.number().describe('area after free die swell, area · die_swell² (isotropic swell)'),
   equivalent_gap_mm: z.number().describe('thin-slit equivalent gap 2·area/perimeter'),
   land_pressure_bar: z.number().describe('estimated pressure drop across the die land (power-law slit, isothermal)'),
-  flow_imbalance_ratio: z.number().describe('thickest/thinnest wall flow per width at equal pressure'),
+  flow_imbalance_ratio: z
+    .number()
+    .describe('thickest/thinnest wall flow per width at equal pressure, (Hmax/Hmin)^(2+1/n)'),
+  wall_pressure_ratio: z
+    .number()
+    .describe('pressure to push equal flow per width through the thinnest vs the thickest wall, (Hmax/Hmin)^(1+2n)'),
   moving_span: z
     .object({
       start_mm: PointOut,

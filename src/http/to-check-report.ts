@@ -37,6 +37,7 @@ export function toCheckReport(schedule: Schedule, check: ScheduleCheck): CheckRe
       equivalent_gap_mm: mm(s.process.equivalentGapMm),
       land_pressure_bar: sig(s.process.landPressureBar),
       flow_imbalance_ratio: sig(s.process.flowImbalanceRatio),
+      wall_pressure_ratio: sig(s.process.wallPressureRatio),
       moving_span: s.movingSpan
         ? {
             start_mm: pointMm(s.movingSpan.start),

@@ -3,7 +3,7 @@ import type { Finding, Schedule } from '../domain/index.js';
 import { MATERIAL_PRESETS } from '../domain/index.js';
 import { areaDrawDownRatio, pullerSpeedForDrawDown, throughputForDrawDown, velocityDrawRatio } from './draw-down.js';
 import { meltSpeedMPerS, productAreaMm2 } from './mass-balance.js';
-import { slitFlowRatioAtEqualPressure, slitPressureDropPa } from './slit-flow.js';
+import { slitFlowRatioAtEqualPressure, slitPressureDropPa, slitPressureRatioAtEqualFlow } from './slit-flow.js';
 
 /** What geometry measured on one station, the input of the process checks. */
 export interface StationMeasures {
@@ -34,6 +34,8 @@ export interface StationProcess {
   readonly landPressureBar: number;
   /** Flow ratio thickest/thinnest wall at equal pressure, (H_max/H_min)^(2+1/n). */
   readonly flowImbalanceRatio: number;
+  /** Pressure ratio thinnest/thickest wall at equal flow per width, (H_max/H_min)^(1+2n). */
+  readonly wallPressureRatio: number;
   /** Thickest over thinnest wall. */
   readonly wallRatio: number;
 }
@@ -83,6 +85,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     const landPressureBar = slitPressureDropPa(slit, qM2PerS) / PA_PER_BAR;
     const wallRatio = m.maxWallMm / m.minWallMm;
     const flowImbalanceRatio = slitFlowRatioAtEqualPressure(m.maxWallMm, m.minWallMm, p.powerLawN);
+    const wallPressureRatio = slitPressureRatioAtEqualFlow(m.maxWallMm, m.minWallMm, p.powerLawN);
     const pullerSpeed = pullerSpeedForDrawDown(throughputKgPerS, p.solidDensityKgPerM3, m.areaMm2, targetDrawDown);
 
     if (m.minWallMm < limits.minWallMm) {
@@ -137,6 +140,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
       equivalentGapMm,
       landPressureBar,
       flowImbalanceRatio,
+      wallPressureRatio,
       wallRatio,
     };
   });

@@ -74,6 +74,12 @@ describe('POST /v1/checks', () => {
     // thinnest wall: the 3 mm floor and top (12 − 9) around the chamber
     expect(res.body.stations[0].min_wall_mm).toBeCloseTo(3, 1);
     expect(res.body.stations[0].moving_span.length_mm).toBeCloseTo(40, 6);
+    // walls 3 mm (floor, top) and 4 mm (sides): power-law slit ratios with PVC-U n = 0.26 (DOMAIN.md §3):
+    // flow (4/3)^(2+1/n), pressure (4/3)^(1+2n) [derived]
+    const s0 = res.body.stations[0];
+    const n = 0.26;
+    expect(s0.flow_imbalance_ratio).toBeCloseTo((s0.max_wall_mm / s0.min_wall_mm) ** (2 + 1 / n), 3);
+    expect(s0.wall_pressure_ratio).toBeCloseTo((s0.max_wall_mm / s0.min_wall_mm) ** (1 + 2 * n), 4);
   });
 
   it('flags draw-down out of range with the puller speed that would hold it', async () => {
