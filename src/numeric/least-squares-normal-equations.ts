@@ -6,6 +6,7 @@ import type { JacobianSparsity } from './least-squares-problem.js';
  *
  * - `form` builds JᵀJ (lower triangle) and g = Jᵀr from the nonzeros of each Jacobian row: O(Σᵢ kᵢ²) ≈ O(m·k²) for
  *   k nonzeros per row, plus an O(m·n) scan for zeros when no sparsity pattern is given, instead of O(m·n²).
+ *   `formBy` takes them from a problem that sums them itself, with no m×n Jacobian at all.
  * - D is Marquardt's scale diag(JᵀJ), kept as its running maximum over the iterations (Moré, "The Levenberg–Marquardt
  *   algorithm: implementation and theory", Lecture Notes in Mathematics 630, 1978), so a column that shrinks keeps
  *   its damping; a column that has always been zero gets scale 1 (its gradient is zero, so its step is zero).
@@ -96,7 +97,31 @@ export class LeastSquaresNormalEquations {
         if (first < envelopeStart[cp]!) envelopeStart[cp] = first;
       }
     }
-    const d = this.scale;
+    return this.raiseScale();
+  }
+
+  /**
+   * Takes JᵀJ and Jᵀr from the problem itself: `fill` adds them into `normalMatrix` (lower triangle) and `gradient`,
+   * which it gets zeroed. The envelope is read off the values (Cholesky fills in nothing left of a row's first
+   * nonzero, whichever way that zero came about). Raises the scale D; false as for `form`.
+   */
+  formBy(fill: (normalMatrix: Float64Array, gradient: Float64Array) => void): boolean {
+    const { n, normalMatrix: a, gradient: g, envelopeStart } = this;
+    a.fill(0);
+    g.fill(0);
+    fill(a, g);
+    for (let j = 0; j < n; j++) {
+      const rowJ = j * n;
+      let first = 0;
+      while (first < j && a[rowJ + first] === 0) first++;
+      envelopeStart[j] = first;
+    }
+    return this.raiseScale();
+  }
+
+  /** Raises D to diag(JᵀJ); false when JᵀJ or g holds a non-finite value. */
+  private raiseScale(): boolean {
+    const { n, normalMatrix: a, gradient: g, scale: d } = this;
     for (let j = 0; j < n; j++) {
       const diagonal = a[j * n + j]!;
       if (!(Number.isFinite(diagonal) && Number.isFinite(g[j]!))) return false;

@@ -16,6 +16,19 @@ export type {
 } from './least-squares-problem.js';
 
 /**
+ * A problem that sums JᵀJ and Jᵀr itself instead of handing over the m×n Jacobian: worth it when the Jacobian has
+ * structure that a product of its rows cannot use (many residuals through a few intermediate quantities).
+ */
+export interface NormalEquationsProblem extends LeastSquaresProblem {
+  /**
+   * Adds JᵀJ at `x` into `normalMatrix` (n×n row-major, lower triangle: entry (p, q), q ≤ p, at p·n + q) and Jᵀr into
+   * `gradient`; both arrive zeroed, and `r` holds the residuals at `x`. The solver calls it at the x of its last
+   * `residuals` call, so work shared with the residuals can be kept from there. Must not keep or modify `x` or `r`.
+   */
+  normalEquations(x: Float64Array, r: Float64Array, normalMatrix: Float64Array, gradient: Float64Array): void;
+}
+
+/**
  * Minimises ½‖r(x)‖² from `x0` by Levenberg–Marquardt for m residuals in n parameters, optionally inside a box.
  *
  * Method (Madsen, Nielsen & Tingleff, *Methods for non-linear least squares problems*, 2nd ed., IMM, DTU, 2004,
@@ -35,12 +48,13 @@ export type {
  *
  * Cost per iteration: the Jacobian (analytic, or n residual evaluations by forward differences), O(m·n) to clear it
  * (and to scan it for zeros without a `jacobianSparsity`), O(Σᵢ kᵢ²) ≈ O(m·k²) to form JᵀJ from k nonzeros per row,
- * and O(Σⱼ wⱼ²) ≤ n³/6 per factorisation for envelope widths wⱼ of JᵀJ. Memory: m·n + 2·n² doubles, allocated once
- * per call. Throws on programmer misuse: bad counts, `x0` of the wrong length or not finite, bounds of the wrong
+ * and O(Σⱼ wⱼ²) ≤ n³/6 per factorisation for envelope widths wⱼ of JᵀJ; a `NormalEquationsProblem` replaces the first
+ * three by its own `normalEquations`. Memory: m·n + 2·n² doubles (2·n² for a `NormalEquationsProblem`), allocated
+ * once per call. Throws on programmer misuse: bad counts, `x0` of the wrong length or not finite, bounds of the wrong
  * length or crossed, invalid options.
  */
 export function solveLeastSquares(
-  problem: LeastSquaresProblem,
+  problem: LeastSquaresProblem | NormalEquationsProblem,
   x0: Float64Array | readonly number[],
   partialOptions: Partial<LeastSquaresOptions> = {},
 ): LeastSquaresResult {
@@ -50,8 +64,9 @@ export function solveLeastSquares(
   const box: ParameterBox = { lower: options.lowerBounds, upper: options.upperBounds };
   checkArguments(n, m, x0, box);
   const normal = new LeastSquaresNormalEquations(n, m, problem.jacobianSparsity);
-  const jacobian = new Float64Array(m * n);
-  const work = problem.jacobian ? new Float64Array(0) : new Float64Array(m);
+  const summed = 'normalEquations' in problem ? problem : null;
+  const jacobian = new Float64Array(summed ? 0 : m * n);
+  const work = problem.jacobian || summed ? new Float64Array(0) : new Float64Array(m);
   const step = new Float64Array(n);
   let x = Float64Array.from(x0);
   project(x, box);
@@ -84,10 +99,11 @@ export function solveLeastSquares(
     };
   };
   const jacobianAtX = (): boolean => {
+    jacobianEvaluations++;
+    if (summed) return normal.formBy((a, g) => summed.normalEquations(x, r, a, g));
     jacobian.fill(0);
     if (problem.jacobian) problem.jacobian(x, jacobian);
     else evaluations += forwardDifferenceJacobian(problem, x, r, options.finiteDifferenceStep, box, jacobian, work);
-    jacobianEvaluations++;
     return normal.form(jacobian, r);
   };
 

@@ -334,11 +334,15 @@ function fitDistinctStations(
   }
   const last = options.plateCount ?? options.maxPlates;
   for (let n = lowest + 1; winner === null && n <= last; n++) {
-    live = live.map((c) => {
+    // as at the first level, the first form (in order of simplicity) that passes ends the level: the forms after it
+    // could not win
+    const next: Candidate[] = [];
+    for (const c of live) {
       const split = splitWorstPlate(c.solved.x, c.solved.spec, options);
-      const next = split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form);
-      return judge(c.form, next);
-    });
+      next.push(judge(c.form, split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form)));
+      if (passes(next[next.length - 1]!)) break;
+    }
+    live = next;
     shapeNearest(live);
     for (const c of live) if (distance(c) < distance(best)) best = c;
     winner = live.find(passes) ?? null;
@@ -549,7 +553,7 @@ function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFit
         parameterCount: layout.parameterCount,
         residualCount: layout.residualCount,
         residuals: problem.residuals,
-        jacobian: problem.jacobian,
+        normalEquations: problem.normalEquations,
       },
       from,
       { maxIterations, lowerBounds: lower, costTolerance: 1e-9 },
