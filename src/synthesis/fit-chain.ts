@@ -338,7 +338,13 @@ function fitDistinctStations(
     // could not win
     const next: Candidate[] = [];
     for (const c of live) {
-      const split = splitWorstPlate(c.solved.x, c.solved.spec, options);
+      // a shaped-edge refit weighs samples for shaped edges; the next count is fitted for straight edges again
+      const plain: ChainProblemSpec = {
+        ...c.solved.spec,
+        sampleWeights: undefined,
+        emphasisMm: 0.7 * options.toleranceMm,
+      };
+      const split = splitWorstPlate(c.solved.x, plain, options);
       next.push(judge(c.form, split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form)));
       if (passes(next[next.length - 1]!)) break;
     }
