@@ -12,7 +12,7 @@ import { loadavg } from 'node:os';
 // @ts-expect-error fmin 0.0.2 ships no typings, and a `declare module` here would be an augmentation of an untyped
 // module (TS2665); the one function used is typed by `NelderMead` below
 import fmin from 'fmin';
-import type { Point, Region } from '../src/geometry/index.js';
+import type { Region } from '../src/geometry/index.js';
 import { ScheduleWire } from '../src/http/schedule-schema.js';
 import { toSchedule } from '../src/http/to-schedule.js';
 import { solveLeastSquares } from '../src/numeric/index.js';
@@ -20,14 +20,9 @@ import { checkSchedule } from '../src/pipeline/index.js';
 import { findMovingSpans, type MovingSpan } from '../src/span/index.js';
 import {
   type ChainFit,
-  type ChainProblemSpec,
-  chainLayout,
-  type EndKind,
-  equalArcPivots,
-  extensionIndex,
   fitChain,
+  initialChain,
   makeChainProblem,
-  type PivotTarget,
   preparePivotTargets,
   resolveChainFitOptions,
 } from '../src/synthesis/index.js';
@@ -196,83 +191,6 @@ function knownChainCase(n: number, stationCount: number): FitCase {
 // ---------------------------------------------------------------------------------------------------------------
 // The same objective by LM and by Nelder–Mead
 
-/**
- * The start vector fitChain's `initialChain` builds for n plates (that function is private; this follows it line for
- * line): pivots at equal arc length on every station's pivot line, end pins at the mean line ends, a slot along the
- * mean end tangent, lengths the station mean.
- */
-function startVector(
-  targets: readonly PivotTarget[],
-  n: number,
-  form: { startKind: EndKind; endKind: EndKind; telescoping: readonly number[] },
-  e: number,
-  toleranceMm: number,
-  minPlateLengthMm: number,
-): { x: Float64Array; spec: ChainProblemSpec } {
-  const lines = targets.map((t) => t.pivotLine);
-  const mean = (pts: readonly Point[]): Point => [
-    pts.reduce((s, p) => s + p[0], 0) / pts.length,
-    pts.reduce((s, p) => s + p[1], 0) / pts.length,
-  ];
-  const startAnchor = mean(lines.map((l) => l[0]!));
-  const endAnchor = mean(lines.map((l) => l[l.length - 1]!));
-  const spec: ChainProblemSpec = {
-    samples: targets.map((t) => t.span),
-    plateCount: n,
-    edgeOffsetMm: e,
-    startKind: form.startKind,
-    endKind: form.endKind,
-    telescoping: form.telescoping,
-    startAnchor,
-    endAnchor,
-    emphasisMm: 0.7 * toleranceMm,
-  };
-  const layout = chainLayout(spec);
-  const x = new Float64Array(layout.parameterCount);
-  const guess = equalArcPivots(lines, n).map((p) => [...p]);
-  const writeEnd = (
-    offset: number,
-    kind: EndKind,
-    anchor: Point,
-    tangent: (t: PivotTarget) => Point,
-    first: boolean,
-  ) => {
-    x[offset] = anchor[0];
-    x[offset + 1] = anchor[1];
-    if (kind === 'slot') {
-      const dir = mean(targets.map(tangent));
-      const psi = Math.atan2(dir[1], dir[0]);
-      x[offset + 2] = psi;
-      guess.forEach((pivots, i) => {
-        const p = pivots[first ? 0 : pivots.length - 1]!;
-        x[offset + 3 + i] = (p[0] - anchor[0]) * Math.cos(psi) + (p[1] - anchor[1]) * Math.sin(psi);
-      });
-    }
-  };
-  writeEnd(layout.start, form.startKind, startAnchor, (t) => t.startTangent, true);
-  writeEnd(layout.end, form.endKind, endAnchor, (t) => t.endTangent, false);
-  for (const pivots of guess) {
-    if (form.startKind === 'pivot') pivots[0] = startAnchor;
-    if (form.endKind === 'pivot') pivots[n] = endAnchor;
-  }
-  for (let k = 0; k < n; k++) {
-    let sum = 0;
-    guess.forEach((p, i) => {
-      const from = p[k]!;
-      const to = p[k + 1]!;
-      sum += Math.hypot(to[0] - from[0], to[1] - from[1]);
-      x[layout.angles + i * n + k] = Math.atan2(to[1] - from[1], to[0] - from[0]);
-    });
-    x[layout.lengths + k] = Math.max(minPlateLengthMm, sum / guess.length);
-    // a telescoping plate starts at each station's own chord
-    guess.forEach((p, i) => {
-      const ext = extensionIndex(layout, k, i);
-      if (ext >= 0) x[ext] = Math.hypot(p[k + 1]![0] - p[k]![0], p[k + 1]![1] - p[k]![1]);
-    });
-  }
-  return { x, spec };
-}
-
 interface Minimum {
   readonly ms: number;
   readonly cost: number;
@@ -317,7 +235,18 @@ function compare(name: string, fitCase: FitCase, fit: ChainFit, plateCount: numb
     endKind: fit.chain.end.kind,
     telescoping: fit.chain.telescoping.map((t) => t.plate).filter((k) => k < plateCount),
   };
-  const { x: x0, spec } = startVector(targets, plateCount, form, e, options.toleranceMm, options.minPlateLengthMm);
+  const samples = targets.map((t) => t.span);
+  // fitChain's own start for this count and form (without its keep-out points, which only guard the walls)
+  const { x: x0, spec } = initialChain(
+    targets,
+    samples,
+    samples.map(() => []),
+    plateCount,
+    form,
+    e,
+    options,
+    null,
+  );
   const problem = makeChainProblem(spec);
   const { layout } = problem;
 

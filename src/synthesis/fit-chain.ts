@@ -59,7 +59,7 @@ function describeForm(spec: ChainProblemSpec): string {
 }
 
 /** How the chain is held and which plate, if any, telescopes. */
-interface ChainForm {
+export interface ChainForm {
   readonly startKind: EndKind;
   readonly endKind: EndKind;
   readonly telescoping: readonly number[];
@@ -419,9 +419,12 @@ function slotEnd(targets: readonly PivotTarget[]): { startKind: EndKind; endKind
     : { startKind: 'pivot', endKind: 'slot' };
 }
 
-/** Builds the start vector for n plates and runs the least-squares refinement. */
-/** The start vector for n plates: pivots at equal arc length (or the marching pivots) on every pivot line. */
-function initialChain(
+/**
+ * The start vector of the chain least-squares problem for n plates held in a given form: pivots at equal arc-length
+ * fractions (or the marching pivots) on every pivot line, end pins at the mean line ends, a slot along the mean end
+ * tangent, common lengths the station mean. Exported for the benchmark, which runs other optimisers from it.
+ */
+export function initialChain(
   targets: readonly PivotTarget[],
   samples: readonly (readonly Point[])[],
   keepOut: readonly (readonly Point[])[],

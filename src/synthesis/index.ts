@@ -19,7 +19,9 @@ export {
   type StationFit,
   type FitAttempt,
   type ChainFit,
+  type ChainForm,
   resolveChainFitOptions,
   fitChain,
+  initialChain,
 } from './fit-chain.js';
 export * from './dyads/index.js';
