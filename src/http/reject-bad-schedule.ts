@@ -1,8 +1,22 @@
 import type { FastifyReply, FastifyRequest } from 'fastify';
-import type { Schedule } from '../domain/index.js';
+import type { Finding, Schedule } from '../domain/index.js';
 import { errorBody } from './error-catalogue.js';
-import type { ScheduleWireValue } from './schedule-schema.js';
+import { ScheduleWire, type ScheduleWireValue } from './schedule-schema.js';
 import { toSchedule } from './to-schedule.js';
+import { unknownFields } from './unknown-fields.js';
+
+/** Bodies as they arrived, before zod dropped unknown fields; filled by `keepRawBody`. */
+const rawBodies = new WeakMap<FastifyRequest, unknown>();
+
+/** preValidation hook of the schedule routes: keeps the body as sent, so unknown fields can be reported. */
+export async function keepRawBody(request: FastifyRequest): Promise<void> {
+  rawBodies.set(request, request.body);
+}
+
+/** Warnings for fields of the request's schedule that the format does not know (see `unknownFields`). */
+export function unknownScheduleFields(request: FastifyRequest): Finding[] {
+  return unknownFields(rawBodies.get(request), ScheduleWire);
+}
 
 /**
  * Maps a zod-valid body to a domain schedule, or answers 400 `invalid_schedule` with every problem's field path and

@@ -203,3 +203,21 @@ describe('rate limit', () => {
     await limited.close();
   });
 });
+
+describe('unknown fields', () => {
+  it('warns, with the path, about a field the format does not know instead of dropping it silently', async () => {
+    const body = fixture('demo-edging-strip') as {
+      limits: Record<string, unknown>;
+      stations: Record<string, unknown>[];
+    };
+    body.limits.min_wall = 3; // a typo for min_wall_mm
+    body.stations[1]!.note = 'crown';
+    const res = await post(body);
+    expect(res.status).toBe(200);
+    const unknown = res.body.findings.filter((f: { code: string }) => f.code === 'UNKNOWN_FIELD');
+    expect(unknown.map((f: { message: string }) => f.message.split(' ')[2])).toEqual([
+      'limits.min_wall',
+      'stations[1].note',
+    ]);
+  });
+});

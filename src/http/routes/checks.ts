@@ -2,8 +2,8 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { checkSchedule } from '../../pipeline/index.js';
 import { CheckReportWire, ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
-import { toCheckReport } from '../to-check-report.js';
-import { scheduleOrReject } from '../reject-bad-schedule.js';
+import { toCheckReport, toFindingWire } from '../to-check-report.js';
+import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
 
 /** `POST /v1/checks`: measure every station and report process findings, with safety cautions. */
 export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
@@ -19,13 +19,15 @@ export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
         body: ScheduleWire,
         response: { 200: CheckReportWire, 400: ErrorWire },
       },
+      preValidation: keepRawBody,
     },
     async (request, reply) => {
       const schedule = scheduleOrReject(request.body, request, reply);
       if (!schedule) return reply;
       const check = checkSchedule(schedule);
       request.log.info({ stations: check.stations.length, findings: check.findings.length }, 'schedule checked');
-      return toCheckReport(schedule, check);
+      const report = toCheckReport(schedule, check);
+      return { ...report, findings: [...unknownScheduleFields(request).map(toFindingWire), ...report.findings] };
     },
   );
 };

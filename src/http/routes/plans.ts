@@ -8,7 +8,7 @@ import { PlanAcceptedWire, PlanWire } from '../plan-schema.js';
 import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { toPlanReport } from '../to-plan-report.js';
-import { scheduleOrReject } from '../reject-bad-schedule.js';
+import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
 
 /**
  * `POST /v1/plans` and `GET /v1/plans/{id}`. The plan is computed before the answer (the job queue comes with the
@@ -25,6 +25,7 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
           body: ScheduleWire,
           response: { 202: PlanAcceptedWire, 400: ErrorWire },
         },
+        preValidation: keepRawBody,
       },
       async (request, reply) => {
         const schedule = scheduleOrReject(request.body, request, reply);
@@ -38,7 +39,8 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
           });
         }
         const started = performance.now();
-        const plan = planSchedule(schedule);
+        const computed = planSchedule(schedule);
+        const plan = { ...computed, findings: [...unknownScheduleFields(request), ...computed.findings] };
         const id = randomUUID();
         store.put({ id, createdAt: now().toISOString(), schedule, plan });
         request.log.info(
