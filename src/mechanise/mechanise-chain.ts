@@ -1,4 +1,4 @@
-import { type Point, type Region, regionBoundaryHausdorff } from '../geometry/index.js';
+import { boundingBox, type Point, type Region, regionBoundaryHausdorff } from '../geometry/index.js';
 import { analyseMobility, grublerMobility, jointPoint, type Pose, pointOnBody } from '../kinematics/index.js';
 import { toDegrees } from '../numeric/index.js';
 import { achievedOrifice, pivotFans, plateOutline } from '../synthesis/index.js';
@@ -255,7 +255,9 @@ function stationOutcome(context: MechaniseContext, pose: Pose, station: number):
     plates.map((p) => ({ outer: p.outer, holes: [] })),
     target,
   );
-  let deviationMm = Number.POSITIVE_INFINITY;
+  // when the plates close the whole orifice it is missed by its full extent (kept finite for the wire)
+  const box = boundingBox(target.outer);
+  let deviationMm = Math.hypot(box.maxX - box.minX, box.maxY - box.minY);
   let worstAt: Point | null = null;
   if (achieved.outer.length >= 3) {
     const h = regionBoundaryHausdorff(target, achieved);

@@ -1,5 +1,6 @@
 import type { Finding } from '../domain/index.js';
 import {
+  boundingBox,
   closestPointOnPolyline,
   type Point,
   pointInRegion,
@@ -693,12 +694,14 @@ function evaluateChain(
     const { orifice: achieved, strays } = plateOpening(openings[i]!, covers, target);
     const targetArea = regionArea(target);
     if (achieved.outer.length < 3) {
+      const box = boundingBox(target.outer);
       return {
         station: i,
         targetOrifice: target,
         achievedOrifice: achieved,
         uncovered: strays,
-        maxDeviationMm: Number.POSITIVE_INFINITY,
+        // the plates close the whole orifice: it is missed by its full extent
+        maxDeviationMm: Math.hypot(box.maxX - box.minX, box.maxY - box.minY),
         worstTarget: target.outer[0]!,
         worstAchieved: target.outer[0]!,
         symmetricDifferenceMm2: targetArea,

@@ -83,6 +83,30 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
     expect(res.body.details[0].path).toBe('stations');
   });
 
+  it('reports a slit the plates cannot follow with finite figures, not a failure of the service', async () => {
+    // regression: a 0.5–0.8 mm slit under plates with e = 5 mm closes entirely in some attempts; the plan must still
+    // serialise (JSON has no infinity)
+    const rect = (h: number) => ({
+      outer: [
+        [0, 0],
+        [40, 0],
+        [40, h],
+        [0, h],
+      ],
+    });
+    const created = await post({
+      stations: [
+        { position_m: 0, orifice: rect(0.5) },
+        { position_m: 1, orifice: rect(0.8) },
+      ],
+    });
+    expect(created.status).toBe(202);
+    const res = await request(app.server).get(`/v1/plans/${created.body.id}`);
+    expect(res.status).toBe(200);
+    for (const a of res.body.chain.attempts)
+      if (a.max_deviation_mm !== null) expect(Number.isFinite(a.max_deviation_mm)).toBe(true);
+  });
+
   it('answers 404 for an unknown plan', async () => {
     const res = await request(app.server).get('/v1/plans/no-such-plan');
     expect(res.status).toBe(404);
