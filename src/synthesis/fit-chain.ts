@@ -254,20 +254,32 @@ function fitDistinctStations(
   }
   const attempts: FitAttempt[] = [];
   const judge = (form: ChainForm, solved: Solved): Candidate => {
-    const miss = chainMiss(solved.x, solved.spec);
-    const candidate: Candidate = { form, solved, miss, evaluation: null };
+    const measured = chainMiss(solved.x, solved.spec);
     // samples can pass while plate bodies or round ends miss between them: the exact check has the last word
+    // a chain that cannot move (N − 2 + slots + telescoping pairs < 1) can only pass between stations by being
+    // taken apart: it never passes when the stations differ
+    const spec = solved.spec;
+    const freedom =
+      spec.plateCount -
+      2 +
+      (spec.startKind === 'slot' ? 1 : 0) +
+      (spec.endKind === 'slot' ? 1 : 0) +
+      (spec.telescoping?.length ?? 0);
+    const movable = freedom >= 1 || orifices.length < 2;
+    // an immovable chain counts as one that does not close: it never passes, shaped or not
+    const miss = movable ? measured : { ...measured, closureMm: Number.POSITIVE_INFINITY };
+    const candidate: Candidate = { form, solved, miss, evaluation: null };
     const closes = miss.closureMm <= CLOSURE_LIMIT_MM;
     if (miss.sampleMm <= options.toleranceMm && closes) {
       candidate.evaluation = evaluateChain(chainFromParameters(solved.x, solved.spec), orifices, openings, shape);
     }
     attempts.push({
       plateCount: solved.spec.plateCount,
-      form: describeForm(solved.spec),
+      form: movable ? describeForm(solved.spec) : `${describeForm(solved.spec)}, cannot move`,
       solverStatus: solved.result.status,
       iterations: solved.result.iterations,
       maxSampleResidualMm: miss.sampleMm,
-      closureGapMm: miss.closureMm,
+      closureGapMm: measured.closureMm,
       maxDeviationMm: candidate.evaluation?.worst ?? null,
     });
     return candidate;

@@ -120,6 +120,31 @@ describe('fitChain', () => {
   });
 });
 
+describe('movable chains', () => {
+  it('never returns a chain that cannot move when the stations differ (a raised flat top needs ≥ 1 freedom)', () => {
+    // Grübler–Kutzbach for a chain pinned at its start: M = N − 2 + (slotted ends) + (telescoping pairs); one plate
+    // with a slotted end has M = 0 and could only reach both stations by being taken apart (DOMAIN.md §3)
+    const rect = (h: number): Region => ({
+      outer: [
+        [0, 0],
+        [40, 0],
+        [40, h],
+        [0, h],
+      ],
+      holes: [],
+    });
+    const orifices = [rect(8), rect(12)];
+    const fit = fitChain(
+      orifices,
+      spansOf(orifices),
+      resolveChainFitOptions({ toleranceMm: 0.1, maxPlates: 8, ...plates }),
+    );
+    const slots = [fit.chain.start, fit.chain.end].filter((end) => end.kind === 'slot').length;
+    expect(fit.status).toBe('fitted');
+    expect(fit.plateCount - 2 + slots + fit.chain.telescoping.length).toBeGreaterThanOrEqual(1);
+  });
+});
+
 describe('shaped edges', () => {
   it('beat straight edges when the stations share curvature', () => {
     // two stations with the same crown y = 8 + 4·sin²(πx/40): every plate meets the same curve, so an edge shaped to
