@@ -20,12 +20,14 @@ export interface LeastSquaresOptions {
   readonly costTolerance: number;
   /**
    * Starting damping λ relative to Marquardt's scale diag(JᵀJ): the first system is (JᵀJ + λ·D)·h = −Jᵀr.
-   * Small values start close to Gauss–Newton. Dimensionless, > 0. @default 1e-3
+   * Small values start close to Gauss–Newton. Also the damping of the least-damped model that must confirm a step or
+   * cost test met by a step damped harder (else the solve is `stalled`). Dimensionless, > 0. @default 1e-3
    */
   readonly initialDamping: number;
   /**
-   * Damping beyond which the solver gives up: `singular` when the damped system still cannot be factored, or the end
-   * of progress when no step lowers the cost. Dimensionless. @default 1e16
+   * Damping beyond which the solver gives up: `singular` when the damped system still cannot be factored; when no step
+   * lowers the cost, `converged` if the least-damped model confirms a step or cost test, else `stalled`.
+   * Dimensionless. @default 1e16
    */
   readonly maxDamping: number;
   /**

@@ -35,11 +35,14 @@ export interface LeastSquaresProblem {
 }
 
 /**
- * How a solve ended: `converged` (a stopping test in `reason` was met), `max-iterations` (the cap was hit first),
- * `singular` (the damped normal equations could not be factored even at the largest damping), `diverged` (the
- * residuals or the Jacobian stopped being finite).
+ * How a solve ended: `converged` (a convergence test in `reason` was met: gradient, step or cost, confirmed on the
+ * least-damped model when the step was damped harder), `stalled` (no step lowers the cost, or only negligibly, yet the
+ * least-damped model still predicts a fall: the residuals do not follow their Jacobian near `x`, as at a kink, with
+ * noise or with a wrong Jacobian; `x` is the best point found, not a certified minimum), `max-iterations` (the cap
+ * was hit first), `singular` (the damped normal equations could not be factored even at the largest damping),
+ * `diverged` (the residuals or the Jacobian stopped being finite).
  */
-export type LeastSquaresStatus = 'converged' | 'max-iterations' | 'singular' | 'diverged';
+export type LeastSquaresStatus = 'converged' | 'stalled' | 'max-iterations' | 'singular' | 'diverged';
 
 /** Outcome of `solveLeastSquares`, reported on success and failure alike. */
 export interface LeastSquaresResult {

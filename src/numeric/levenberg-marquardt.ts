@@ -40,10 +40,19 @@ export interface NormalEquationsProblem extends LeastSquaresProblem {
  * J. Comput. Appl. Math. 172 (2004) 375–397): parameters pressing against a bound are held out of the step, the
  * rest are clipped to the box, and the gradient test uses the projected gradient.
  *
- * Stops with `converged` on the gradient, step or relative-cost test of `options`, or when λ passes `maxDamping`
- * without any step lowering the cost; `max-iterations` at the cap; `singular` when the damped system cannot be
- * factored at `maxDamping`; `diverged` when the residuals at the start or the Jacobian at an iterate are not finite
- * (a non-finite trial point is only a rejected step). The result always carries status, reason, iterations and
+ * Stopping (Madsen, Nielsen & Tingleff 2004, §3.2 [mem]; the relative cost test of MINPACK, Moré, Garbow & Hillstrom,
+ * ANL-80-74, 1980): `converged` only when a convergence test holds, either the projected gradient ‖g‖∞ ≤
+ * `gradientTolerance`, or a step ‖h‖ ≤ `stepTolerance`·(‖x‖ + `stepTolerance`), or an accepted step whose actual and
+ * predicted falls are both ≤ `costTolerance`·F. A damped step is short, and predicts little, merely because λ is large
+ * (h ≈ −D⁻¹g/λ), so the step and cost tests are trusted as they stand only for a step damped no harder than
+ * `initialDamping` (a model close to Gauss–Newton). Otherwise they are confirmed on that least-damped model at the same
+ * x: its step must pass the step test, or its predicted fall L(0) − L(h) must be ≤ `costTolerance`·F (the model says
+ * nothing more is to be had). When λ passes `maxDamping` with no step lowering the cost, the same confirmation decides.
+ * A test that the least-damped model does not confirm ends the solve as `stalled`: the solver cannot make progress,
+ * yet the model still predicts a fall, so the residuals do not follow their Jacobian near x (a kink, noise, a wrong
+ * Jacobian). `max-iterations` at the cap; `singular` when the damped system cannot be factored at `maxDamping`;
+ * `diverged` when the residuals at the start or the Jacobian at an iterate are not finite (a non-finite trial point is
+ * only a rejected step). The result always carries status, reason (the test and the values compared), iterations and
  * residual. `partialOptions` is completed by `resolveLeastSquaresOptions`, which documents every default.
  *
  * Cost per iteration: the Jacobian (analytic, or n residual evaluations by forward differences), O(m·n) to clear it
@@ -68,6 +77,7 @@ export function solveLeastSquares(
   const jacobian = new Float64Array(summed ? 0 : m * n);
   const work = problem.jacobian || summed ? new Float64Array(0) : new Float64Array(m);
   const step = new Float64Array(n);
+  const referenceStep = new Float64Array(n);
   let x = Float64Array.from(x0);
   project(x, box);
   let xTrial = new Float64Array(n);
@@ -114,8 +124,45 @@ export function solveLeastSquares(
   if (!jacobianAtX()) return finish('diverged', 'the Jacobian is not finite at the starting point');
 
   const { maxIterations, gradientTolerance, stepTolerance, costTolerance, maxDamping, pivotTolerance } = options;
+  const trustedDamping = options.initialDamping;
+  /**
+   * The least-damped model at x (the normal equations formed there, the active bounds marked): its step, at λ =
+   * `trustedDamping` or the least multiple of it that factors, passes the step test, or its predicted fall is
+   * ≤ costTolerance·F. Overwrites the factor and `referenceStep`.
+   */
+  const confirm = (): { holds: boolean; detail: string } => {
+    let lambda = trustedDamping;
+    while (!normal.factorDamped(lambda, pivotTolerance)) {
+      if (lambda >= maxDamping) return { holds: false, detail: 'the least-damped model cannot be factored' };
+      lambda = Math.min(maxDamping, lambda * 10);
+    }
+    normal.solveStep(referenceStep);
+    let stepSquared = 0;
+    let xSquared = 0;
+    for (let j = 0; j < n; j++) {
+      const xj = x[j]!;
+      referenceStep[j] = clamp(xj + referenceStep[j]!, box.lower?.[j], box.upper?.[j]) - xj;
+      stepSquared += referenceStep[j]! * referenceStep[j]!;
+      xSquared += xj * xj;
+    }
+    const stepNorm = Math.sqrt(stepSquared);
+    const stepLimit = stepTolerance * (Math.sqrt(xSquared) + stepTolerance);
+    const predicted = normal.predictedReduction(referenceStep);
+    const detail =
+      `the model at damping λ = ${fmt(lambda)} steps ‖Δx‖ = ${fmt(stepNorm)} (step test ${fmt(stepLimit)}) ` +
+      `and predicts a fall of ${fmt(predicted)} (cost test ${fmt(costTolerance * cost)})`;
+    return { holds: stepNorm <= stepLimit || predicted <= costTolerance * cost, detail };
+  };
+  const stalled = (what: string, detail: string): LeastSquaresResult =>
+    finish(
+      'stalled',
+      `${what}, yet ${detail}: the damping, not the problem, made the step short, so the residuals do not follow ` +
+        'their Jacobian here (a kink, noise or a wrong Jacobian) and x is the best point found, not a certified minimum',
+    );
   let damping = options.initialDamping;
   let growth = 2;
+  /** Set when the last accepted step passed the cost test: how much it gained, and at which damping. */
+  let costTest: { relativeFall: number; damping: number } | null = null;
   for (;;) {
     const gradientNorm = fixActiveBounds(x, normal.gradient, box, normal.fixed);
     if (gradientNorm <= gradientTolerance) {
@@ -123,6 +170,12 @@ export function solveLeastSquares(
         'converged',
         `gradient ‖Jᵀr‖∞ = ${fmt(gradientNorm)} ≤ gradientTolerance ${fmt(gradientTolerance)}`,
       );
+    }
+    if (costTest) {
+      const what = `the cost fell by ${fmt(costTest.relativeFall)} of itself ≤ costTolerance ${fmt(costTolerance)} at damping λ = ${fmt(costTest.damping)}`;
+      if (costTest.damping <= trustedDamping) return finish('converged', what);
+      const check = confirm();
+      return check.holds ? finish('converged', `${what}, and ${check.detail}`) : stalled(what, check.detail);
     }
     if (iterations >= maxIterations) {
       return finish(
@@ -152,10 +205,10 @@ export function solveLeastSquares(
       const stepNorm = Math.sqrt(stepSquared);
       const stepLimit = stepTolerance * (Math.sqrt(xSquared) + stepTolerance);
       if (stepNorm <= stepLimit) {
-        return finish(
-          'converged',
-          `step ‖Δx‖ = ${fmt(stepNorm)} ≤ stepTolerance·(‖x‖ + stepTolerance) = ${fmt(stepLimit)}`,
-        );
+        const what = `step ‖Δx‖ = ${fmt(stepNorm)} ≤ stepTolerance·(‖x‖ + stepTolerance) = ${fmt(stepLimit)} at damping λ = ${fmt(damping)}`;
+        if (damping <= trustedDamping) return finish('converged', what);
+        const check = confirm();
+        return check.holds ? finish('converged', `${what}, and ${check.detail}`) : stalled(what, check.detail);
       }
       const predicted = normal.predictedReduction(step);
       problem.residuals(xTrial, rTrial);
@@ -164,10 +217,11 @@ export function solveLeastSquares(
       const actual = cost - trialCost;
       if (actual > 0) {
         const gain = predicted > 0 ? actual / predicted : 0;
+        if (actual <= costTolerance * cost && predicted <= costTolerance * cost) {
+          costTest = { relativeFall: actual / cost, damping };
+        }
         damping = Math.max(Number.MIN_VALUE, damping * Math.max(1 / 3, 1 - (2 * gain - 1) ** 3));
         growth = 2;
-        const costStalled = actual <= costTolerance * cost && predicted <= costTolerance * cost;
-        const previousCost = cost;
         const xPrevious = x;
         x = xTrial;
         xTrial = xPrevious;
@@ -175,20 +229,20 @@ export function solveLeastSquares(
         r = rTrial;
         rTrial = rPrevious;
         cost = trialCost;
-        if (costStalled) {
-          return finish(
-            'converged',
-            `cost fell by ${fmt(actual / previousCost)} of itself ≤ costTolerance ${fmt(costTolerance)}`,
-          );
-        }
         if (!jacobianAtX()) return finish('diverged', `the Jacobian is not finite at iteration ${iterations}`);
         break;
       }
       // A rejected step, including one to a point where the residuals are not finite: damp harder, same Jacobian.
       if (damping >= maxDamping) {
-        return Number.isFinite(trialCost)
-          ? finish('converged', `no step lowers the cost: damping reached maxDamping ${fmt(maxDamping)}`)
-          : finish('diverged', `the residuals are not finite at any trial point, even at damping λ = ${fmt(damping)}`);
+        if (!Number.isFinite(trialCost)) {
+          return finish(
+            'diverged',
+            `the residuals are not finite at any trial point, even at damping λ = ${fmt(damping)}`,
+          );
+        }
+        const what = `no step lowers the cost even at damping λ = ${fmt(damping)} (maxDamping)`;
+        const check = confirm();
+        return check.holds ? finish('converged', `${what}, and ${check.detail}`) : stalled(what, check.detail);
       }
       damping = Math.min(maxDamping, damping * growth);
       growth *= 2;

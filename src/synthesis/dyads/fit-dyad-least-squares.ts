@@ -50,8 +50,9 @@ export interface DyadFitStart {
 /** A least-squares dyad, reported on success and failure alike. */
 export interface DyadFit {
   /**
-   * `converged` (the stopping test in `reason` was met), `max-iterations`, `singular` (the circle point's positions,
-   * or the centre's positions seen from B, lie on a line: no finite circle), `diverged` (the link grew past
+   * `converged` (the stopping test in `reason` was met), `stalled` (the polish could not lower the geometric error
+   * though its model says it should; the pins are the best found), `max-iterations`, `singular` (the circle point's
+   * positions, or the centre's positions seen from B, lie on a line: no finite circle), `diverged` (the link grew past
    * `maxRadiusMm` or the numbers stopped being finite).
    */
   readonly status: LeastSquaresStatus;

@@ -30,7 +30,10 @@ export function resolveMultistartOptions(
 }
 
 export interface MultistartDyads {
-  /** Distinct fits ranked by `residualRmsMm`, best first; only `converged` and `max-iterations` fits. */
+  /**
+   * Distinct fits ranked by `residualRmsMm`, best first: `converged`, `stalled` and `max-iterations` fits, whose pins
+   * are the best found and whose residuals say how good they are; the caller judges them by residual.
+   */
   readonly candidates: readonly DyadFit[];
   /** Fits started. */
   readonly starts: number;
@@ -62,7 +65,7 @@ export function multistartDyads(
         { circlePointLocal: [at(i, lo[0], hi[0]), at(j, lo[1], hi[1])] },
         options.fit,
       );
-      if ((fit.status !== 'converged' && fit.status !== 'max-iterations') || !Number.isFinite(fit.residualRmsMm)) {
+      if (fit.status === 'singular' || fit.status === 'diverged' || !Number.isFinite(fit.residualRmsMm)) {
         failed++;
         continue;
       }
