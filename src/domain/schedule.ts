@@ -67,6 +67,10 @@ export interface Limits {
   readonly fitToleranceMm: number;
   /** Largest plate count the fit may use. */
   readonly maxPlates: number;
+  /** Fewest plates the fit may use (the search goes no lower). */
+  readonly minPlates: number;
+  /** Fit exactly this many plates instead of searching for the fewest; null to search. */
+  readonly plateCount: number | null;
 }
 
 export interface PlateSettings {

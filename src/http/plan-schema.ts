@@ -6,9 +6,15 @@ const RegionOut = z
   .object({ outer: z.array(PointOut), holes: z.array(z.array(PointOut)) })
   .describe('orifice in mm: outer ring counter-clockwise, holes clockwise');
 
+const PlanStatusWire = z
+  .enum(['queued', 'running', 'done', 'incomplete', 'failed'])
+  .describe(
+    'done: every station within the fit tolerance and driven by the requested actuators; incomplete: computed but short of the request (see outcome.shortfalls; the best mechanism found is returned); failed: no chain could be fitted (see error)',
+  );
+
 export const PlanAcceptedWire = z.object({
   id: z.string(),
-  status: z.enum(['queued', 'running', 'done', 'failed']),
+  status: PlanStatusWire,
 });
 
 export const PlanStationWire = z.object({
@@ -60,6 +66,21 @@ export const ChainWire = z.object({
     .array(z.object({ plate: z.string(), station_lengths_mm: z.array(z.number()), stroke_mm: z.number() }))
     .describe('plates whose pivot-to-pivot length changes between stations (a pair sliding on a prismatic joint)'),
   solver: z.object({ status: z.string(), iterations: z.number().int(), reason: z.string() }),
+  search: z
+    .object({
+      lowest_plate_count_tried: z.number().int(),
+      highest_plate_count_tried: z.number().int(),
+      forms: z.array(z.string()),
+      below_answer: z
+        .object({
+          plate_count: z.number().int(),
+          starts: z.number().int().describe('independent starts solved at this count'),
+          best_miss_mm: z.number().nullable().describe('smallest miss among them; null when none closed'),
+        })
+        .nullable()
+        .describe('the evidence that one plate fewer misses the tolerance'),
+    })
+    .describe('the plate counts and forms the fit searched'),
   attempts: z.array(
     z.object({
       plate_count: z.number().int(),
@@ -79,7 +100,8 @@ export const MechanisationWire = z.object({
     .enum(['direct', 'reduced'])
     .nullable()
     .describe('direct: one actuator per degree of freedom; reduced: binary links take up the rest'),
-  requested_actuators: z.number().int(),
+  requested_actuators: z.number().int().describe('actuators the schedule asks for'),
+  actuator_count: z.number().int().describe('actuators of the mechanism returned'),
   chain_degrees_of_freedom: z.number().int(),
   smallest_actuator_count: z.number().int().nullable().describe('fewest actuators found to work'),
   distinct_positions: z.number().int(),
@@ -97,11 +119,29 @@ export const MechanisationWire = z.object({
   ),
 });
 
+export const ChainTriedWire = z.object({
+  variant: z.string().describe('what differs from the schedule’s own settings'),
+  plate_count: z.number().int(),
+  fit_status: z.enum(['fitted', 'best-effort']),
+  max_deviation_mm: z.number(),
+  chain_degrees_of_freedom: z.number().int().nullable(),
+  mechanised: z.boolean(),
+  actuator_count: z.number().int().nullable(),
+  verdict: z.string().describe('chosen, or why this chain was not the answer'),
+});
+
 export const PlanWire = z.object({
   id: z.string(),
   name: z.string(),
-  status: z.enum(['queued', 'running', 'done', 'failed']),
+  status: PlanStatusWire,
   error: z.string().optional(),
+  outcome: z
+    .object({
+      meets_request: z.boolean(),
+      shortfalls: z.array(z.string()).describe('one sentence per way the plan falls short of the schedule'),
+    })
+    .describe('whether the plan does what the schedule asks'),
+  chains_tried: z.array(ChainTriedWire).describe('every chain fitted and tried, the chosen one marked'),
   created_at: z.string(),
   findings: z.array(FindingWire),
   cautions: z.array(CautionWire),

@@ -97,6 +97,20 @@ export const LimitsWire = z.object({
     .max(60, { error: 'max_plates may be at most 60' })
     .optional()
     .describe('largest plate count; default 24'),
+  min_plates: z
+    .number({ error: 'min_plates must be a whole number' })
+    .int({ error: 'min_plates must be a whole number' })
+    .min(1, { error: 'min_plates must be at least 1' })
+    .max(60, { error: 'min_plates may be at most 60' })
+    .optional()
+    .describe('fewest plates the search may return; default 1'),
+  plate_count: z
+    .number({ error: 'plate_count must be a whole number' })
+    .int({ error: 'plate_count must be a whole number' })
+    .min(1, { error: 'plate_count must be at least 1' })
+    .max(60, { error: 'plate_count may be at most 60' })
+    .optional()
+    .describe('fit exactly this many plates instead of searching for the fewest; default: search'),
 });
 
 export const PlatesWire = z.object({

@@ -41,6 +41,17 @@ export function toPlanReport(record: PlanRecord): PlanReport {
     name: schedule.name,
     status: plan.status,
     ...(plan.error ? { error: plan.error } : {}),
+    outcome: { meets_request: plan.outcome.meetsRequest, shortfalls: [...plan.outcome.shortfalls] },
+    chains_tried: plan.chainsTried.map((c) => ({
+      variant: c.variant,
+      plate_count: c.plateCount,
+      fit_status: c.fitStatus,
+      max_deviation_mm: mm(c.maxDeviationMm),
+      chain_degrees_of_freedom: Number.isFinite(c.chainDegreesOfFreedom) ? c.chainDegreesOfFreedom : null,
+      mechanised: c.mechanised,
+      actuator_count: c.actuatorCount,
+      verdict: c.verdict,
+    })),
     created_at: record.createdAt,
     findings: plan.findings.map(toFindingWire),
     cautions: plan.cautions.map(toCautionWire),
@@ -59,6 +70,20 @@ export function toPlanReport(record: PlanRecord): PlanReport {
             stroke_mm: mm(Math.max(...t.stationLengthsMm) - Math.min(...t.stationLengthsMm)),
           })),
           solver: fit.solver,
+          search: {
+            lowest_plate_count_tried: fit.search.lowestTried,
+            highest_plate_count_tried: fit.search.highestTried,
+            forms: [...fit.search.forms],
+            below_answer: fit.search.belowAnswer
+              ? {
+                  plate_count: fit.search.belowAnswer.plateCount,
+                  starts: fit.search.belowAnswer.starts,
+                  best_miss_mm: Number.isFinite(fit.search.belowAnswer.bestMissMm)
+                    ? mm(fit.search.belowAnswer.bestMissMm)
+                    : null,
+                }
+              : null,
+          },
           attempts: fit.attempts.map((a) => ({
             plate_count: a.plateCount,
             form: a.form,
@@ -74,7 +99,8 @@ export function toPlanReport(record: PlanRecord): PlanReport {
       ? {
           status: plan.mechanisation.status,
           mode: plan.mechanisation.mode,
-          requested_actuators: plan.mechanisation.requestedActuators,
+          requested_actuators: schedule.actuators.count,
+          actuator_count: plan.mechanism?.actuators.length ?? 0,
           chain_degrees_of_freedom: plan.mechanisation.chainDegreesOfFreedom,
           smallest_actuator_count: plan.mechanisation.smallestActuatorCount,
           distinct_positions: plan.mechanisation.distinctPositions,

@@ -102,6 +102,21 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       message: `a periodic schedule's stations must fit inside one repeat: they span ${last - first} m but repeat_length_m is ${wire.repeat_length_m} m`,
     });
   }
+  const maxPlates = wire.limits?.max_plates ?? WIRE_DEFAULTS.maxPlates;
+  const minPlates = wire.limits?.min_plates ?? 1;
+  if (minPlates > maxPlates) {
+    problems.push({
+      path: 'limits.min_plates',
+      message: `min_plates (${minPlates}) is more than max_plates (${maxPlates}): no plate count satisfies both`,
+    });
+  }
+  const plateCount = wire.limits?.plate_count;
+  if (plateCount !== undefined && (plateCount < minPlates || plateCount > maxPlates)) {
+    problems.push({
+      path: 'limits.plate_count',
+      message: `plate_count (${plateCount}) lies outside min_plates–max_plates (${minPlates}–${maxPlates})`,
+    });
+  }
   if (problems.length > 0) return { ok: false, problems };
 
   const span = wire.moving_span;
@@ -125,7 +140,9 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       minWallMm: wire.limits?.min_wall_mm ?? WIRE_DEFAULTS.minWallMm,
       maxWallRatio: wire.limits?.max_wall_ratio ?? WIRE_DEFAULTS.maxWallRatio,
       fitToleranceMm: wire.limits?.fit_tolerance_mm ?? WIRE_DEFAULTS.fitToleranceMm,
-      maxPlates: wire.limits?.max_plates ?? WIRE_DEFAULTS.maxPlates,
+      maxPlates,
+      minPlates,
+      plateCount: plateCount ?? null,
     },
     plates: {
       pivotHoleDiameterMm: wire.plates?.pivot_hole_diameter_mm ?? WIRE_DEFAULTS.pivotHoleDiameterMm,

@@ -12,6 +12,8 @@ export interface MechanisableChain {
   readonly shape: ChainFit['shape'];
   readonly opening: Region;
   readonly stations: readonly { readonly targetOrifice: Region }[];
+  /** Each plate's shaped melt edge in its own frame, or null for a straight edge; absent: all straight. */
+  readonly edgeProfiles?: ChainFit['edgeProfiles'];
 }
 
 /** A moving body of the chain: a plate, the sliding half of a telescoping pair, or the slider block of a slotted end. */

@@ -113,7 +113,15 @@ export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest
   if (a > d) return noMechanism(base, context, [], [], smallestFrom(1), noSearch, 'too-many');
   const first = attempt(a);
   if (first.design) {
-    return mechanised(base, context, first.design, a === d ? 'direct' : 'reduced', first.plates, first.search);
+    return mechanised(
+      base,
+      context,
+      first.design,
+      a === d ? 'direct' : 'reduced',
+      first.plates,
+      first.search,
+      fit.edgeProfiles ?? [],
+    );
   }
   return noMechanism(base, context, first.plates, first.defects, smallestFrom(a + 1), first.search, 'search');
 }
@@ -144,12 +152,13 @@ function mechanised(
   mode: 'direct' | 'reduced',
   plates: readonly PlateSearch[],
   search: MechanisationResult['search'],
+  edges: NonNullable<MechanisableChain['edgeProfiles']>,
 ): MechanisationResult {
   const { stations } = context;
   const model = design.mechanism;
   const reached = stations.distinctOf.map((p) => design.motion.arrivals[p] ?? null);
   const poses: Pose[] = reached.map((r, i) => r ?? design.expected[stations.distinctOf[i]!]!);
-  const outcomes = poses.map((pose, i) => stationOutcome(context, pose, i));
+  const outcomes = poses.map((pose, i) => stationOutcome(context, pose, i, edges));
   const grubler = grublerMobility(model);
   const rank = analyseMobility(poses[0]!);
   const report: MechanismReport = {
@@ -238,7 +247,12 @@ function transmissionSummary(design: EvaluatedDesign): MechanisationResult['tran
 }
 
 /** Pivots where the driven mechanism puts them, the plates round them, and the orifice they leave. */
-function stationOutcome(context: MechaniseContext, pose: Pose, station: number): StationOutcome {
+function stationOutcome(
+  context: MechaniseContext,
+  pose: Pose,
+  station: number,
+  edges: NonNullable<MechanisableChain['edgeProfiles']>,
+): StationOutcome {
   const { topology, stations, shape, opening } = context;
   const pivots = drivenPivots(topology, pose);
   const assembled = pivotPoints(topology, stations.poses[station]!);
@@ -246,7 +260,10 @@ function stationOutcome(context: MechaniseContext, pose: Pose, station: number):
   const plates: Region[] = [];
   const fans = pivotFans(stations.poses.map((pose) => pivotPoints(topology, pose)));
   for (let k = 0; k + 1 < pivots.length; k++) {
-    plates.push(plateOutline(pivots[k]!, pivots[k + 1]!, shape, null, { atA: fans[k]!, atB: fans[k + 1]! }));
+    // shaped edges go with their plates: the driven plates carry the same steel the fit checked
+    plates.push(
+      plateOutline(pivots[k]!, pivots[k + 1]!, shape, edges[k] ?? null, { atA: fans[k]!, atB: fans[k + 1]! }),
+    );
   }
   const target = context.orifices[station]!;
   // pins fill the pivot holes: the plates cover the opening with their outlines

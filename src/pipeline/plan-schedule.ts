@@ -1,29 +1,65 @@
 import type { Caution, Finding, Schedule } from '../domain/index.js';
-import { type ChainFit, fitChain, resolveChainFitOptions } from '../synthesis/index.js';
-import { type ScheduleCheck, checkSchedule } from './check-schedule.js';
 import { type MechanisationResult, mechaniseChain } from '../mechanise/index.js';
+import { type ChainFit, type ChainFitOptions, fitChain, resolveChainFitOptions } from '../synthesis/index.js';
 import { chainMechanism, type PlanMechanism } from './chain-mechanism.js';
+import { type ScheduleCheck, checkSchedule } from './check-schedule.js';
+
+/** One chain the planner fitted and tried to drive, for the report. */
+export interface ChainTried {
+  /** What was changed from the schedule's own settings, in words (`as asked`, `pinned ends only`, …). */
+  readonly variant: string;
+  readonly plateCount: number;
+  readonly fitStatus: ChainFit['status'];
+  /** Worst exact deviation over stations of the fitted chain, mm. */
+  readonly maxDeviationMm: number;
+  readonly chainDegreesOfFreedom: number;
+  readonly mechanised: boolean;
+  /** Actuators of the mechanism built on this chain, or null when none was built. */
+  readonly actuatorCount: number | null;
+  /** Why this chain was not the answer, or `chosen`. */
+  readonly verdict: string;
+}
+
+/** Whether the plan does what the schedule asks, and where it falls short. */
+export interface PlanOutcome {
+  readonly meetsRequest: boolean;
+  /** One sentence per shortfall; empty when the request is met. */
+  readonly shortfalls: readonly string[];
+}
 
 /** A plan: the check, the fitted chain and the mechanism built from it, or why it stopped. */
 export interface Plan {
-  readonly status: 'done' | 'failed';
+  /**
+   * `done`: the plan meets the request (every station within the fit tolerance, driven by the requested actuators);
+   * `incomplete`: the plan was computed but falls short (see `outcome`), and carries the best mechanism found;
+   * `failed`: no chain could be fitted at all (see `error`).
+   */
+  readonly status: 'done' | 'incomplete' | 'failed';
   /** Why the plan stopped, in a sentence, when it failed. */
   readonly error: string | null;
+  readonly outcome: PlanOutcome;
   readonly check: ScheduleCheck;
   readonly fit: ChainFit | null;
   /** Binary links and actuators that drive the chain through every station, or why none were found. */
   readonly mechanisation: MechanisationResult | null;
   /** The mechanism the plan reports: the mechanised one, or else the bare chain with its degrees of freedom. */
   readonly mechanism: PlanMechanism | null;
+  /** Every chain fitted and tried, the chosen one marked. */
+  readonly chainsTried: readonly ChainTried[];
   readonly findings: readonly Finding[];
   readonly cautions: readonly Caution[];
 }
 
 /**
  * request → validated schedule → profile checks → chain fit → mechanisation (binary links and actuators, proved by
- * driving the mechanism through every station). Pure and synchronous; a plan whose stations
- * cannot be reconciled into one moving span, or with fewer than two stations, fails with the reason and the check's
- * findings.
+ * driving the mechanism through every station). Pure and synchronous.
+ *
+ * Fit and mechanisation are one search (DOMAIN.md §3, "Fit and links as one problem"): when the chain fitted as
+ * asked cannot be driven by the requested actuators, other chains that trace the stations are fitted (pinned ends
+ * only: a slot or a telescoping pair adds a degree of freedom; deeper plates: room for link pins) and the first that
+ * the requested actuators drive wins. When none does, the plan is `incomplete` and carries the mechanism with the
+ * fewest actuators found, fully built. A plan whose stations cannot be reconciled into one moving span, or with fewer
+ * than two stations, fails with the reason and the check's findings.
  */
 export function planSchedule(schedule: Schedule): Plan {
   const check = checkSchedule(schedule);
@@ -37,37 +73,178 @@ export function planSchedule(schedule: Schedule): Plan {
       check.findings.find((f) => f.code.startsWith('SPAN_'))?.message ?? 'The moving span could not be found.';
     return failed(base, check.findings, `No plates can be fitted: ${reason}`);
   }
-  const fit = fitChain(
-    schedule.stations.map((s) => s.orifice),
-    spans.map((s) => s!),
-    resolveChainFitOptions({
-      toleranceMm: schedule.limits.fitToleranceMm,
-      maxPlates: schedule.limits.maxPlates,
-      pivotHoleDiameterMm: schedule.plates.pivotHoleDiameterMm,
-      ligamentMm: schedule.plates.ligamentMm,
-      depthMm: schedule.plates.depthMm,
-    }),
-  );
-  const mechanisation = mechaniseChain(fit, {
+  const orifices = schedule.stations.map((s) => s.orifice);
+  const asked = resolveChainFitOptions({
+    toleranceMm: schedule.limits.fitToleranceMm,
+    maxPlates: schedule.limits.maxPlates,
+    minPlates: schedule.limits.minPlates,
+    plateCount: schedule.limits.plateCount,
+    pivotHoleDiameterMm: schedule.plates.pivotHoleDiameterMm,
+    ligamentMm: schedule.plates.ligamentMm,
+    depthMm: schedule.plates.depthMm,
+  });
+  const request = {
     actuatorCount: schedule.actuators.count,
     periodic: schedule.repeatLengthM !== null,
     fitToleranceMm: schedule.limits.fitToleranceMm,
+  };
+  const fitWith = (options: ChainFitOptions) =>
+    fitChain(
+      orifices,
+      spans.map((s) => s!),
+      options,
+    );
+  const worstOf = (fit: ChainFit) => Math.max(...fit.stations.map((s) => s.maxDeviationMm));
+
+  const tried: ChainTried[] = [];
+  const record = (variant: string, fit: ChainFit, m: MechanisationResult, verdict: string) =>
+    tried.push({
+      variant,
+      plateCount: fit.plateCount,
+      fitStatus: fit.status,
+      maxDeviationMm: worstOf(fit),
+      chainDegreesOfFreedom: m.chainDegreesOfFreedom,
+      mechanised: m.status === 'mechanised',
+      actuatorCount: m.mechanism ? m.mechanism.actuators.length : null,
+      verdict,
+    });
+
+  const fit = fitWith(asked);
+  const first = mechaniseChain(fit, request);
+  if (fit.status === 'fitted' && first.status === 'mechanised') {
+    record('as asked', fit, first, 'chosen');
+    return finish(base, check, fit, first, tried, []);
+  }
+  if (fit.status !== 'fitted') {
+    record('as asked', fit, first, 'chosen: no chain the search tried meets the fit tolerance');
+    const shortfall = `No chain the search tried traces every station within ${schedule.limits.fitToleranceMm} mm (best ${fmt(worstOf(fit))} mm).`;
+    return finish(base, check, fit, first, tried, [shortfall]);
+  }
+  record('as asked', fit, first, `the requested ${request.actuatorCount} actuator(s) do not drive it`);
+
+  // other chains that trace the stations, most like the one asked for first
+  const variants: { name: string; options: ChainFitOptions }[] = [];
+  const heldBySlot = fit.chain.start.kind === 'slot' || fit.chain.end.kind === 'slot' || fit.chain.telescoping.length;
+  if (heldBySlot && asked.plateCount === null) {
+    variants.push({ name: 'pinned ends only', options: { ...asked, allowSlots: false, allowTelescoping: false } });
+  }
+  if (asked.plateCount === null && fit.plateCount < asked.maxPlates) {
+    // more plates bend in more places: a pivot may land where a link can hold it
+    variants.push({ name: `${fit.plateCount + 1} plates`, options: { ...asked, plateCount: fit.plateCount + 1 } });
+  }
+  variants.push({
+    name: `plates ${fmt(asked.depthMm * DEEPER_PLATES)} mm deep`,
+    options: { ...asked, depthMm: asked.depthMm * DEEPER_PLATES },
   });
-  const bare = chainMechanism(fit);
+  // when nothing meets the request, the chain that the fewest actuators drive is the fallback
+  let fallback = { fit, mechanisation: first, row: 0 };
+  for (const variant of variants) {
+    const other = fitWith(variant.options);
+    if (other.status !== 'fitted') {
+      tried.push({
+        variant: variant.name,
+        plateCount: other.plateCount,
+        fitStatus: other.status,
+        maxDeviationMm: worstOf(other),
+        chainDegreesOfFreedom: Number.NaN,
+        mechanised: false,
+        actuatorCount: null,
+        verdict: 'misses the fit tolerance',
+      });
+      continue;
+    }
+    const driven = mechaniseChain(other, request);
+    if (driven.status === 'mechanised') {
+      record(variant.name, other, driven, 'chosen');
+      const note: Finding = {
+        code: 'CHAIN_CHANGED_FOR_ACTUATORS',
+        severity: 'warning',
+        value: other.plateCount,
+        message: `The chain fitted with the schedule's own settings (${fit.plateCount} plates) cannot be driven by ${request.actuatorCount} actuator(s); a chain with ${variant.name} (${other.plateCount} plates) traces every station and is driven by them, so it is the plan. See chains_tried.`,
+      };
+      return finish(base, check, other, driven, tried, [], [note]);
+    }
+    record(variant.name, other, driven, `the requested ${request.actuatorCount} actuator(s) do not drive it`);
+    const fewest = fallback.mechanisation.smallestActuatorCount;
+    if (driven.smallestActuatorCount !== null && (fewest === null || driven.smallestActuatorCount < fewest)) {
+      fallback = { fit: other, mechanisation: driven, row: tried.length - 1 };
+    }
+  }
+
+  // nothing meets the request: the fewest actuators found, fully built, on the chain that needs them
+  const smallest = fallback.mechanisation.smallestActuatorCount;
+  const shortfall =
+    smallest === null
+      ? `No mechanism with ${request.actuatorCount} actuator(s) or more was found for any of the ${tried.length} chains tried.`
+      : `${request.actuatorCount} actuator(s) were asked for; the fewest found to drive a chain that traces every station is ${smallest}, and that mechanism is returned.`;
+  if (smallest !== null && smallest !== request.actuatorCount) {
+    const built = mechaniseChain(fallback.fit, {
+      ...request,
+      actuatorCount: smallest,
+      findSmallestActuatorCount: false,
+    });
+    if (built.status === 'mechanised') {
+      const row = tried[fallback.row]!;
+      tried[fallback.row] = { ...row, verdict: `chosen with ${smallest} actuators: the fewest found` };
+      return finish(base, check, fallback.fit, built, tried, [shortfall], fallback.mechanisation.findings);
+    }
+  }
+  return finish(base, check, fit, first, tried, [shortfall]);
+}
+
+/** Plates tried this much deeper than asked when the chain's plates leave no room for link pins. */
+const DEEPER_PLATES = 1.6;
+
+function finish(
+  base: Pick<Plan, 'check' | 'cautions'>,
+  check: ScheduleCheck,
+  fit: ChainFit,
+  mechanisation: MechanisationResult,
+  chainsTried: readonly ChainTried[],
+  shortfalls: readonly string[],
+  extra: readonly Finding[] = [],
+): Plan {
   const mechanism: PlanMechanism = mechanisation.mechanism
     ? { ...mechanisation.mechanism, findings: [] }
-    : { ...bare, findings: [] };
+    : { ...chainMechanism(fit), findings: [] };
+  // the deviation that counts is the one of the plates where the driven mechanism puts them
+  const tolerance = mechanisation.options.fitToleranceMm;
+  const driven = mechanisation.stations.filter((s) => s.deviationMm > tolerance * (1 + 1e-9));
+  const all = [...shortfalls];
+  if (driven.length > 0) {
+    const worst = driven.reduce((a, b) => (b.deviationMm > a.deviationMm ? b : a));
+    all.push(
+      `Driven by its actuators, the mechanism misses ${driven.length} station(s) by more than ${tolerance} mm (worst: station ${worst.station}, ${fmt(worst.deviationMm)} mm).`,
+    );
+  }
+  const meetsRequest = all.length === 0;
   return {
-    status: 'done',
+    status: meetsRequest ? 'done' : 'incomplete',
     error: null,
+    outcome: { meetsRequest, shortfalls: all },
     ...base,
     fit,
     mechanisation,
     mechanism,
-    findings: [...check.findings, ...fit.findings, ...mechanisation.findings],
+    chainsTried,
+    findings: [...check.findings, ...fit.findings, ...extra, ...mechanisation.findings],
   };
 }
 
 function failed(base: Pick<Plan, 'check' | 'cautions'>, findings: readonly Finding[], error: string): Plan {
-  return { status: 'failed', error, ...base, fit: null, mechanisation: null, mechanism: null, findings };
+  return {
+    status: 'failed',
+    error,
+    outcome: { meetsRequest: false, shortfalls: [error] },
+    ...base,
+    fit: null,
+    mechanisation: null,
+    mechanism: null,
+    chainsTried: [],
+    findings,
+  };
+}
+
+function fmt(x: number): string {
+  return String(Math.round(x * 1000) / 1000);
 }

@@ -25,6 +25,8 @@ import { type ChainEnd, endPoint, type PlateChain } from './plate-chain.js';
 import { pivotFans, plateOutline, type PlateShape } from './plate-outline.js';
 import { type PivotTarget, preparePivotTargets } from './pivot-targets.js';
 import { nearestPlate } from './nearest-plate.js';
+import { jointArticulation } from './joint-articulation.js';
+import { mergePlatesStart } from './merge-plates-start.js';
 import { type EdgeProfile, shapePlateEdges } from './shape-plate-edges.js';
 
 /** Settings of one chain fit; `resolveChainFitOptions` documents the defaults. */
@@ -44,6 +46,8 @@ export interface ChainFitOptions {
   readonly maxIterations: number;
   /** Fit exactly this many plates instead of searching for the fewest. @default null */
   readonly plateCount: number | null;
+  /** Fewest plates the search may return (the plant's own lower bound). @default 1 */
+  readonly minPlates: number;
   /** May an end pin run in a slot when pinned ends cannot follow the stations? @default true */
   readonly allowSlots: boolean;
   /** May one plate telescope when pinned ends cannot follow the stations and no slot may be used? @default true */
@@ -52,7 +56,7 @@ export interface ChainFitOptions {
   readonly shapedEdges: boolean;
 }
 
-function describeForm(spec: ChainProblemSpec): string {
+function describeForm(spec: Pick<ChainProblemSpec, 'startKind' | 'endKind' | 'telescoping'>): string {
   if (spec.startKind === 'slot') return 'slot at start';
   if (spec.endKind === 'slot') return 'slot at end';
   const t = spec.telescoping ?? [];
@@ -75,6 +79,7 @@ export function resolveChainFitOptions(
     sampleSpacingMm: 0.5,
     maxIterations: 60,
     plateCount: null,
+    minPlates: 1,
     allowSlots: true,
     allowTelescoping: true,
     shapedEdges: true,
@@ -133,7 +138,24 @@ export interface ChainFit {
     readonly reason: string;
   };
   readonly attempts: readonly FitAttempt[];
+  /** What the plate-count search covered, and the evidence that one plate fewer misses. */
+  readonly search: PlateCountSearch;
   readonly findings: readonly Finding[];
+}
+
+/** The plate counts the fit searched and what it found at the count below its answer. */
+export interface PlateCountSearch {
+  /** Smallest and largest plate count tried. */
+  readonly lowestTried: number;
+  readonly highestTried: number;
+  /** Chain forms tried, in words (`pinned`, `slot at end`, `telescoping plate k`). */
+  readonly forms: readonly string[];
+  /**
+   * One plate fewer than the answer: how many independent starts were solved and the smallest miss among them (exact
+   * deviation, or the sample miss when the chain did not close or the samples already missed), mm. Null when the
+   * answer is the plate count asked for, the lower bound, or the search found no passing chain.
+   */
+  readonly belowAnswer: { readonly plateCount: number; readonly starts: number; readonly bestMissMm: number } | null;
 }
 
 /**
@@ -212,7 +234,7 @@ function fitDistinctStations(
   );
   const estimate = options.plateCount ?? Math.max(1, Math.min(options.maxPlates, march.lengthsMm.length));
   // marching overestimates where stations bend at different places: the scan starts a little below it
-  const lowest = options.plateCount ?? Math.max(1, estimate - Math.max(2, Math.round(estimate / 4)));
+  const lowest = options.plateCount ?? Math.max(1, options.minPlates, estimate - Math.max(2, Math.round(estimate / 4)));
   type Solved = ReturnType<typeof refineChain>;
   const fromScratch = (n: number, form: ChainForm): Solved => {
     // a telescoping plate keeps its place along the chain when the plate count changes
@@ -358,13 +380,53 @@ function fitDistinctStations(
         emphasisMm: 0.7 * options.toleranceMm,
       };
       const split = splitWorstPlate(c.solved.x, plain, options);
-      next.push(judge(c.form, split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form)));
-      if (passes(next[next.length - 1]!)) break;
+      let tried = judge(c.form, split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form));
+      // a split keeps the shorter chain's bends where they were: an independent start may find other ones
+      if (split && !passes(tried)) {
+        const fresh = judge(c.form, fromScratch(n, c.form));
+        if (passes(fresh) || distance(fresh) < distance(tried)) tried = fresh;
+      }
+      next.push(tried);
+      if (passes(tried)) break;
     }
     live = next;
     shapeNearest(live);
     for (const c of live) if (distance(c) < distance(best)) best = c;
     winner = live.find(passes) ?? null;
+  }
+  // the upward scan proves nothing about counts it did not reach, and a count it passed at may still hold a pivot that
+  // never turns: go down from the winner, one plate at a time, from several independent starts (the winner with each
+  // of its least-turning pivots removed, and fresh starts in every form) until a count fails from all of them
+  if (winner && options.plateCount === null) {
+    for (;;) {
+      const m = winner.solved.spec.plateCount - 1;
+      if (m < Math.max(1, options.minPlates)) break;
+      const tries: Candidate[] = [];
+      const plainWinner: ChainProblemSpec = {
+        ...winner.solved.spec,
+        sampleWeights: undefined,
+        emphasisMm: 0.7 * options.toleranceMm,
+      };
+      const turning = jointArticulation(chainFromParameters(winner.solved.x, plainWinner));
+      const order = turning.map((t, j) => ({ t, pivot: j + 1 })).sort((a, b) => a.t - b.t);
+      for (const { pivot } of order.slice(0, MERGE_STARTS)) {
+        const start = mergePlatesStart(winner.solved.x, plainWinner, pivot);
+        if (!start) continue;
+        tries.push(judge(winner.form, refineChain(start.x, start.spec, options)));
+        if (passes(tries[tries.length - 1]!)) break;
+      }
+      if (!tries.some(passes)) {
+        for (const form of forms) {
+          if (form.telescoping.length > 0 && m < 3) continue;
+          tries.push(judge(form, fromScratch(m, form)));
+          if (passes(tries[tries.length - 1]!)) break;
+        }
+      }
+      shapeNearest(tries);
+      const pass = tries.find(passes);
+      if (!pass) break;
+      winner = pass;
+    }
   }
   const status: ChainFit['status'] = winner ? 'fitted' : 'best-effort';
   const final = winner ?? best;
@@ -384,7 +446,21 @@ function fitDistinctStations(
       (t) => Math.max(...t.stationLengthsMm) - Math.min(...t.stationLengthsMm) > RIGID_STROKE_MM,
     ),
   };
-  const findings = fitFindings(rigidified, fits, orifices, status, options, startKind, endKind, spans);
+  const tried = attempts.map((a) => a.plateCount);
+  const below = chosen - 1;
+  const belowAttempts = attempts.filter((a) => a.plateCount === below);
+  const missOf = (a: FitAttempt) =>
+    a.maxDeviationMm ?? (a.closureGapMm <= CLOSURE_LIMIT_MM ? a.maxSampleResidualMm : Number.POSITIVE_INFINITY);
+  const search: PlateCountSearch = {
+    lowestTried: Math.min(...tried),
+    highestTried: Math.max(...tried),
+    forms: forms.map(describeForm),
+    belowAnswer:
+      winner && belowAttempts.length > 0
+        ? { plateCount: below, starts: belowAttempts.length, bestMissMm: Math.min(...belowAttempts.map(missOf)) }
+        : null,
+  };
+  const findings = fitFindings(rigidified, fits, orifices, status, options, startKind, endKind, spans, search);
   return {
     status,
     chain: rigidified,
@@ -396,6 +472,7 @@ function fitDistinctStations(
     stations: fits,
     solver: { status: result.status, iterations: result.iterations, reason: result.reason },
     attempts,
+    search,
     findings,
   };
 }
@@ -608,6 +685,9 @@ function refineChain(x0: Float64Array, spec: ChainProblemSpec, options: ChainFit
   return { x: result.x, spec: polished, result };
 }
 
+/** Pivots of a passing chain (least-turning first) removed one at a time as starts for one plate fewer. */
+const MERGE_STARTS = 3;
+
 /**
  * A telescoping pair is two plates sliding on each other: its shortest pivot-to-pivot length must hold both plates'
  * holes and the slide between them, taken as 1.5 plate minimums (common practice, no source).
@@ -754,8 +834,28 @@ function fitFindings(
   startKind: EndKind,
   endKind: EndKind,
   spans: readonly MovingSpan[],
+  search: PlateCountSearch,
 ): Finding[] {
   const findings: Finding[] = [];
+  const n = chain.lengthsMm.length;
+  const searched =
+    search.lowestTried === search.highestTried
+      ? `${search.lowestTried} plates`
+      : `${search.lowestTried} to ${search.highestTried} plates`;
+  if (status === 'fitted') {
+    const b = search.belowAnswer;
+    findings.push({
+      code: 'PLATE_COUNT',
+      severity: 'info',
+      value: n,
+      message:
+        options.plateCount !== null
+          ? `${n} plates, as limits.plate_count asks; fewer were not searched.`
+          : b === null
+            ? `${n} plates, the fewest the search allowed (limits.min_plates ${options.minPlates}).`
+            : `${n} plates is the fewest found: with ${b.plateCount} the best of ${b.starts} independent starts misses by ${Number.isFinite(b.bestMissMm) ? `${fmt(b.bestMissMm)} mm` : 'a chain that does not close'} (tolerance ${options.toleranceMm} mm). This is evidence from local fits, not a proof.`,
+    });
+  }
   if (status === 'best-effort') {
     const worst = fits.reduce((a, b) => (b.maxDeviationMm > a.maxDeviationMm ? b : a));
     findings.push({
@@ -765,7 +865,7 @@ function fitFindings(
       value: worst.maxDeviationMm,
       limit: options.toleranceMm,
       at: worst.worstTarget,
-      message: `No chain of up to ${options.maxPlates} plates traces every station within ${options.toleranceMm} mm; the best (${chain.lengthsMm.length} plates) misses station ${worst.station} by ${fmt(worst.maxDeviationMm)} mm near (${fmt(worst.worstTarget[0])}, ${fmt(worst.worstTarget[1])}) mm. More plates (limits.max_plates), a smaller pivot hole or ligament (tighter curves), a telescoping plate, or a looser fit_tolerance_mm would help.`,
+      message: `No chain the search tried (${searched}; ${search.forms.join(', ')}) traces every station within ${options.toleranceMm} mm; the best (${chain.lengthsMm.length} plates) misses station ${worst.station} by ${fmt(worst.maxDeviationMm)} mm near (${fmt(worst.worstTarget[0])}, ${fmt(worst.worstTarget[1])}) mm. More plates (limits.max_plates), a smaller pivot hole or ligament (tighter curves), a telescoping plate, or a looser fit_tolerance_mm would help.`,
     });
   }
   for (const [which, end] of [

@@ -20,8 +20,11 @@ export {
   type FitAttempt,
   type ChainFit,
   type ChainForm,
+  type PlateCountSearch,
   resolveChainFitOptions,
   fitChain,
   initialChain,
 } from './fit-chain.js';
+export { jointArticulation } from './joint-articulation.js';
+export { mergePlatesStart } from './merge-plates-start.js';
 export * from './dyads/index.js';
