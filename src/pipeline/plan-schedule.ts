@@ -56,9 +56,9 @@ export interface Plan {
  *
  * Fit and mechanisation are one search (DOMAIN.md §3, "Fit and links as one problem"): when the chain fitted as
  * asked cannot be driven by the requested actuators, other chains that trace the stations are fitted (pinned ends
- * only: a slot or a telescoping pair adds a degree of freedom; deeper plates: room for link pins) and the first that
- * the requested actuators drive wins. When none does, the plan is `incomplete` and carries the mechanism with the
- * fewest actuators found, fully built. A plan whose stations cannot be reconciled into one moving span, or with fewer
+ * only: a slot or a telescoping pair adds a degree of freedom; one plate more: pivots in other places; deeper plates:
+ * room for link pins) and the first that the requested actuators drive wins. When none does, the plan is `incomplete`
+ * and carries the mechanism with the fewest actuators found over all chains tried, fully built. A plan whose stations cannot be reconciled into one moving span, or with fewer
  * than two stations, fails with the reason and the check's findings.
  */
 export function planSchedule(schedule: Schedule): Plan {
