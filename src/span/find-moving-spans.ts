@@ -1,7 +1,14 @@
-import { type Point, type Polyline, pointInRegion, type Region } from '../geometry/index.js';
-import { DEFAULT_TOLERANCES } from '../numeric/index.js';
-import { makeRingWalk, pointAtArc, type RingWalk, subpathCcw, wrapArc } from './ring-walk.js';
-import { isNearBoundary, makeSegmentGrid, type SegmentGrid } from './segment-grid.js';
+import type { Point, Polyline, Region } from '../geometry/index.js';
+import { relabelRuns } from './boundary-run.js';
+import { findCommonRuns } from './find-common-runs.js';
+import { isCrossing } from './is-crossing.js';
+import { locateOnRing } from './locate-on-ring.js';
+import { makeRingWalk, pointAtArc, type RingWalk, sampleArcs, subpathCcw, wrapArc } from './ring-walk.js';
+import { runAlongWall } from './run-along-wall.js';
+import { isNearBoundary, makeSegmentGrid } from './segment-grid.js';
+import { wallClearance } from './wall-clearance.js';
+import { wallDeparture } from './wall-departure.js';
+import { wallLineAt } from './wall-line.js';
 
 /** The part of one station's outer boundary that the plates form. */
 export interface MovingSpan {
@@ -18,43 +25,68 @@ export interface MovingSpan {
   readonly slideMm: { readonly start: number; readonly end: number };
 }
 
+/** Span ends in the die-body frame, mm: the span is walked clockwise (melt on the right) from `start` to `end`. */
+export interface SpanEnds {
+  readonly start: Point;
+  readonly end: Point;
+}
+
 export type MovingSpanResult =
-  | { readonly status: 'found'; readonly spans: readonly MovingSpan[] }
+  | {
+      readonly status: 'found';
+      readonly spans: readonly MovingSpan[];
+      /**
+       * With explicit ends only: the first place where a station differs from station 0 outside its span, more than
+       * max(1 mm, 10 × tolerance) of arc from the span's ends, mm; null when the die-body parts agree.
+       */
+      readonly differsOutside: { readonly station: number; readonly at: Point } | null;
+    }
   | { readonly status: 'unknown'; readonly reason: string }
   | {
       readonly status: 'unreconciled';
       readonly station: number;
       readonly at: Point;
       readonly message: string;
+      /** The explicit ends the service would suggest (round the longest common die-body wall), or null. */
+      readonly suggestedEnds: SpanEnds | null;
     };
 
 export interface MovingSpanOptions {
   /** Two boundaries closer than this are the same die-body wall, mm. */
   readonly matchToleranceMm: number;
   /** Explicit ends: the closest boundary point of each station to each; null to find the span automatically. */
-  readonly ends: { readonly start: Point; readonly end: Point } | null;
+  readonly ends: SpanEnds | null;
 }
 
-interface Run {
+interface ArcInterval {
+  /** Counter-clockwise start, mm of arc. */
   readonly from: number;
+  /** Counter-clockwise end, mm of arc. */
   readonly to: number;
-  readonly fixed: boolean;
 }
 
 /**
- * Splits every station's outer boundary into the die-body part (the same lines and arcs in every station) and the
- * moving span the plates form. A boundary point belongs to the die body when it lies within the match tolerance of
- * every other station's boundary; each station must then change along one contiguous span. Where the plates meet a
- * straight die-body wall at a different place per station, the span's end slides along that wall: the wall is
- * recognised as the continuation of the common part's last straight edge that no station's melt crosses.
+ * Splits every station's outer boundary into the die-body part and the moving span the plates form.
  *
- * Runs shorter than max(1 mm, 10·tolerance) of common boundary inside a span are crossings, not die body; changes
- * shorter than max(0.2 mm, 4·tolerance) are noise. Holes are left to the die body (a mandrel): they must not change.
+ * Automatic: station 0's boundary is split into runs that lie within the match tolerance of every station's boundary
+ * (common) and runs that do not. Differing runs shorter than max(0.2 mm, 4·tolerance) are noise; common runs shorter
+ * than max(1 mm, 10·tolerance) are too short to hold a plate end. A common run where the boundaries meet at an angle
+ * (see `isCrossing`) is a crossing, not wall: the span runs through it. What is left common is die-body wall; the
+ * span is the one stretch outside the longest wall, mapped onto every station through its closest boundary points,
+ * and each end slides along a straight die-body wall that no station's melt lies beyond. Two separate walls with
+ * motion between them cannot be reconciled; the answer then suggests explicit ends. Cost grows linearly with the
+ * number of stations (each is compared with station 0 and located once).
+ *
+ * Explicit: the span in every station runs clockwise from its boundary point closest to `ends.start` to the one
+ * closest to `ends.end`, whatever the stations do in between; a difference outside it is reported, not refused.
+ * Holes are left to the die body (a mandrel): they must not change.
+ *
+ * @throws RangeError with no stations or a tolerance that is not positive.
  */
 export function findMovingSpans(orifices: readonly Region[], options: MovingSpanOptions): MovingSpanResult {
   const tol = options.matchToleranceMm;
-  const minFixedRun = Math.max(1.0, 10 * tol);
-  const minMovingRun = Math.max(0.2, 4 * tol);
+  if (orifices.length === 0) throw new RangeError('findMovingSpans: no stations');
+  if (!(tol > 0)) throw new RangeError(`findMovingSpans: matchToleranceMm must be positive, got ${tol}`);
   if (orifices.length < 2 && options.ends === null) {
     return {
       status: 'unknown',
@@ -63,77 +95,189 @@ export function findMovingSpans(orifices: readonly Region[], options: MovingSpan
   }
   const holeProblem = findChangedHole(orifices, tol);
   if (holeProblem) return holeProblem;
-
   const walks = orifices.map((o) => makeRingWalk(o.outer));
-  const grids = orifices.map((o) => makeSegmentGrid(o.outer, tol));
-  const runsPerStation = walks.map((walk, i) => classifyBoundary(walk, i, grids, tol));
+  return options.ends ? spansBetweenEnds(walks, options.ends, tol) : spansRoundWall(orifices, walks, tol);
+}
 
-  const spans: MovingSpan[] = [];
-  let identical = 0;
-  for (let i = 0; i < orifices.length; i++) {
-    const walk = walks[i]!;
-    const runs = runsPerStation[i]!;
-    let region: { from: number; to: number };
-    if (options.ends) {
-      const chosen = spanFromEnds(walk, runs, options.ends, orifices.length > 1);
-      const stray = runs.find((r) => !r.fixed && length(walk, r) >= minMovingRun && !inside(walk, r, chosen));
-      if (stray) {
-        const at = pointAtArc(walk, r50(walk, stray));
-        return {
-          status: 'unreconciled',
-          station: i,
-          at,
-          message: `Outside the given moving span, station ${i} differs from the other stations near (${fmt(at[0])}, ${fmt(at[1])}) mm: the die body cannot hold that part. Move moving_span.start or end so the span covers it.`,
-        };
-      }
-      region = chosen;
-    } else {
-      const found = spanFromRuns(walk, runs, i, minFixedRun, minMovingRun);
-      if ('status' in found) {
-        if (found.status === 'identical') {
-          identical++;
-          continue;
-        }
-        return found;
-      }
-      region = found;
-    }
-    const slid = snapToVertices(walk, slideAlongWalls(walk, region, i, orifices, tol), 3 * tol);
-    const spanLength = wrapArc(walk, slid.to - slid.from) || walk.perimeterMm;
-    if (spanLength < minMovingRun) {
-      const at = pointAtArc(walk, slid.from);
-      return {
-        status: 'unreconciled',
-        station: i,
-        at,
-        message: `Station ${i}'s moving span shrinks to nothing near (${fmt(at[0])}, ${fmt(at[1])}) mm once its ends follow the die-body walls.`,
-      };
-    }
-    const ccw = subpathCcw(walk, slid.from, slid.to);
-    const path = [...ccw].reverse();
-    const fixed = [...subpathCcw(walk, slid.to, slid.from)].reverse();
-    spans.push({
-      path,
-      start: path[0]!,
-      end: path[path.length - 1]!,
-      lengthMm: spanLength,
-      fixed,
-      slideMm: { start: slid.slideEnd, end: slid.slideStart },
-    });
-  }
-  if (identical > 0) {
+function spansBetweenEnds(walks: readonly RingWalk[], ends: SpanEnds, tol: number): MovingSpanResult {
+  const regions = walks.map((walk) => ({
+    from: locateOnRing(walk, ends.end).arcMm,
+    to: locateOnRing(walk, ends.start).arcMm,
+  }));
+  const spans = walks.map((walk, i) => {
+    const region = regions[i]!;
+    const raw = wrapArc(walk, region.to - region.from);
+    // start and end on the same point: the whole ring moves
+    return makeSpan(walk, region, raw < tol / 1000 ? walk.perimeterMm : raw, { start: 0, end: 0 });
+  });
+  return { status: 'found', spans, differsOutside: findDifferenceOutside(walks, regions, tol) };
+}
+
+function spansRoundWall(orifices: readonly Region[], walks: readonly RingWalk[], tol: number): MovingSpanResult {
+  const minFixedRun = Math.max(1.0, 10 * tol);
+  const minMovingRun = Math.max(0.2, 4 * tol);
+  const ref = walks[0]!;
+  const others = orifices.slice(1).map((o) => makeSegmentGrid(o.outer, tol));
+  let runs = findCommonRuns(ref, others, tol);
+  runs = relabelRuns(ref, runs, (r) => !r.common && r.length < minMovingRun);
+  runs = relabelRuns(ref, runs, (r) => r.common && r.length < minFixedRun);
+  if (runs.every((r) => r.common)) {
     return {
       status: 'unknown',
       reason:
         'Every station has the same orifice within the match tolerance: nothing moves, so there is no moving span.',
     };
   }
-  return { status: 'found', spans };
+  runs = relabelRuns(ref, runs, (r) => r.common && isCrossing(ref, r, others, tol));
+  const walls = runs.filter((r) => r.common);
+  if (walls.length === 0) {
+    return {
+      status: 'unreconciled',
+      station: 0,
+      at: ref.ring[0]!,
+      message: `The stations share no die-body wall: no stretch of boundary lies on all of them, in the same place and direction, within the match tolerance of ${tol} mm. Check that every station is drawn in the same die-body frame, or give moving_span.start and end where the plates meet the die body.`,
+      suggestedEnds: null,
+    };
+  }
+  const longest = walls.reduce((a, b) => (b.length > a.length ? b : a));
+  // the wall proper ends where the stations part, not where they have parted by the whole tolerance
+  const wallFrom = wallDeparture(ref, longest.from, 1, others, tol, longest.length / 2);
+  const wallTo = wallDeparture(ref, longest.from + longest.length, -1, others, tol, longest.length / 2);
+  const wall = { from: wrapArc(ref, wallFrom), length: wallTo - wallFrom };
+  const suggestedEnds = { start: pointAtArc(ref, wall.from), end: pointAtArc(ref, wall.from + wall.length) };
+  const suggestion = `give moving_span.start ${fmtPoint(suggestedEnds.start)} and end ${fmtPoint(suggestedEnds.end)} (the span round the longest wall common to all stations)`;
+  if (walls.length > 1) {
+    const places = runs.filter((r) => !r.common).map((r) => pointAtArc(ref, r.from + r.length / 2));
+    return {
+      status: 'unreconciled',
+      station: 0,
+      at: places[0]!,
+      message: `The stations differ from each other in ${places.length} separate places (near ${places
+        .slice(0, 2)
+        .map(fmtPlace)
+        .join(
+          ' and ',
+        )} mm) with die-body wall common to all of them between; one chain of plates can form only one contiguous span. If the plates are to form everything between, ${suggestion}; otherwise check that the fixed part of the profile is drawn the same in every station.`,
+      suggestedEnds,
+    };
+  }
+  const regions: ArcInterval[] = walks.map((walk, i) =>
+    i === 0
+      ? { from: wrapArc(ref, wall.from + wall.length), to: wall.from }
+      : { from: locateOnRing(walk, suggestedEnds.end).arcMm, to: locateOnRing(walk, suggestedEnds.start).arcMm },
+  );
+  const lengths = walks.map((walk, i) => wrapArc(walk, regions[i]!.to - regions[i]!.from));
+  const forward = slideEnds(
+    walks,
+    regions.map((r) => r.from),
+    lengths,
+    1,
+    orifices,
+    tol,
+  );
+  const backward = slideEnds(
+    walks,
+    regions.map((r) => r.to),
+    lengths.map((l, i) => l - forward[i]!),
+    -1,
+    orifices,
+    tol,
+  );
+  const spans: MovingSpan[] = [];
+  for (let i = 0; i < walks.length; i++) {
+    const walk = walks[i]!;
+    const slid = snapToVertices(
+      walk,
+      { from: regions[i]!.from + forward[i]!, to: regions[i]!.to - backward[i]! },
+      3 * tol,
+    );
+    const lengthMm = wrapArc(walk, slid.to - slid.from);
+    if (lengthMm < minMovingRun) {
+      const at = pointAtArc(walk, slid.from);
+      return {
+        status: 'unreconciled',
+        station: i,
+        at,
+        message: `Station ${i}'s moving span shrinks to nothing near ${fmtPlace(at)} mm once its ends follow the die-body walls; ${suggestion}.`,
+        suggestedEnds,
+      };
+    }
+    spans.push(makeSpan(walk, slid, lengthMm, { start: backward[i]!, end: forward[i]! }));
+  }
+  return { status: 'found', spans, differsOutside: null };
+}
+
+/**
+ * How far each station's span end slides along the straight die-body wall it sits on, mm: as far as the station's
+ * own boundary stays on the wall line, and no further than any station's melt lies just beyond that line.
+ */
+function slideEnds(
+  walks: readonly RingWalk[],
+  arcs: readonly number[],
+  available: readonly number[],
+  dir: 1 | -1,
+  orifices: readonly Region[],
+  tol: number,
+): number[] {
+  const lines = walks.map((walk, i) => wallLineAt(walk, arcs[i]!, dir, tol));
+  const own = walks.map((walk, i) => {
+    const line = lines[i];
+    return line ? runAlongWall(walk, arcs[i]!, dir, line, available[i]!, tol) : 0;
+  });
+  let lead = 0;
+  for (let i = 1; i < own.length; i++) if (own[i]! > own[lead]!) lead = i;
+  const line = lines[lead];
+  if (!line || !(own[lead]! > 0)) return own.map(() => 0);
+  // one clearance for every station: their lines agree within the match tolerance, which the 3·tol probe covers
+  const clear = wallClearance(line, orifices, 3 * tol, own[lead]! + 1);
+  return own.map((run, i) => {
+    const o = lines[i]?.origin ?? line.origin;
+    const offset = (o[0] - line.origin[0]) * line.along[0] + (o[1] - line.origin[1]) * line.along[1];
+    return Math.max(0, Math.min(run, clear - offset));
+  });
+}
+
+function makeSpan(
+  walk: RingWalk,
+  region: ArcInterval,
+  lengthMm: number,
+  slideMm: { start: number; end: number },
+): MovingSpan {
+  const path = [...subpathCcw(walk, region.from, region.to)].reverse();
+  const fixed = [...subpathCcw(walk, region.to, region.from)].reverse();
+  return { path, start: path[0]!, end: path[path.length - 1]!, lengthMm, fixed, slideMm };
+}
+
+/**
+ * The first point of a station's die-body part (outside its span, away from the span's ends) that is not on station
+ * 0's boundary; each station is compared with station 0 only, so the cost grows linearly.
+ */
+function findDifferenceOutside(
+  walks: readonly RingWalk[],
+  regions: readonly ArcInterval[],
+  tol: number,
+): { station: number; at: Point } | null {
+  if (walks.length < 2) return null;
+  const margin = Math.max(1.0, 10 * tol);
+  const reference = makeSegmentGrid(walks[0]!.ring, tol);
+  for (let i = 1; i < walks.length; i++) {
+    const walk = walks[i]!;
+    const { from, to } = regions[i]!;
+    const fixedLength = wrapArc(walk, from - to);
+    for (const s of sampleArcs(walk, Math.max(tol, Math.min(0.25, walk.perimeterMm / 4000)))) {
+      const into = wrapArc(walk, s - to);
+      if (into < margin || into > fixedLength - margin) continue;
+      const p = pointAtArc(walk, s);
+      if (!isNearBoundary(reference, p, tol)) return { station: i, at: p };
+    }
+  }
+  return null;
 }
 
 /** Holes belong to the die body: each must appear, unchanged within tolerance, in every station. */
 function findChangedHole(orifices: readonly Region[], tol: number): MovingSpanResult | null {
   const reference = orifices[0]!;
+  const grids = reference.holes.map((h) => makeSegmentGrid(h, tol));
   for (let i = 1; i < orifices.length; i++) {
     const holes = orifices[i]!.holes;
     if (holes.length !== reference.holes.length) {
@@ -143,9 +287,9 @@ function findChangedHole(orifices: readonly Region[], tol: number): MovingSpanRe
         station: i,
         at,
         message: `Station ${i} has ${holes.length} hole(s) where station 0 has ${reference.holes.length}: holes are held by the die body and cannot change along the product.`,
+        suggestedEnds: null,
       };
     }
-    const grids = reference.holes.map((h) => makeSegmentGrid(h, tol));
     for (const hole of holes) {
       const stray = hole.find((p) => !grids.some((g) => isNearBoundary(g, p, tol)));
       if (stray) {
@@ -153,7 +297,8 @@ function findChangedHole(orifices: readonly Region[], tol: number): MovingSpanRe
           status: 'unreconciled',
           station: i,
           at: stray,
-          message: `A hole of station ${i} differs from station 0 near (${fmt(stray[0])}, ${fmt(stray[1])}) mm: the plates form only the outer boundary, so holes must stay the same in every station.`,
+          message: `A hole of station ${i} differs from station 0 near ${fmtPlace(stray)} mm: the plates form only the outer boundary, so holes must stay the same in every station.`,
+          suggestedEnds: null,
         };
       }
     }
@@ -161,227 +306,8 @@ function findChangedHole(orifices: readonly Region[], tol: number): MovingSpanRe
   return null;
 }
 
-/** Marks the boundary as runs that lie on every other station's boundary (fixed) or not (moving). */
-function classifyBoundary(walk: RingWalk, self: number, grids: readonly SegmentGrid[], tol: number): Run[] {
-  const others = grids.filter((_, j) => j !== self);
-  const isFixed = (s: number): boolean => {
-    const p = pointAtArc(walk, s);
-    return others.every((g) => isNearBoundary(g, p, tol));
-  };
-  const step = Math.max(tol, Math.min(0.25, walk.perimeterMm / 4000));
-  const samples: number[] = [];
-  for (let i = 0; i < walk.ring.length; i++) {
-    const s0 = walk.cumulative[i]!;
-    const s1 = walk.cumulative[i + 1]!;
-    const pieces = Math.max(1, Math.ceil((s1 - s0) / step));
-    for (let k = 0; k < pieces; k++) samples.push(s0 + ((s1 - s0) * k) / pieces);
-  }
-  const flags = samples.map(isFixed);
-  const n = samples.length;
-  const changesAt = (k: number) => flags[k] !== flags[(k + n - 1) % n];
-  const first = flags.findIndex((_, k) => changesAt(k));
-  if (first < 0) return [{ from: 0, to: walk.perimeterMm, fixed: flags[0]! }];
-  // the arc length where the flag changes between sample k-1 and sample k
-  const transition = (k: number) => {
-    const a = samples[(k + n - 1) % n]!;
-    let b = samples[k]!;
-    if (b < a) b += walk.perimeterMm;
-    return wrapArc(walk, refineTransition(a, b, flags[(k + n - 1) % n]!, isFixed, tol));
-  };
-  const runs: Run[] = [];
-  let from = transition(first);
-  for (let offset = 1; offset <= n; offset++) {
-    const k = (first + offset) % n;
-    if (!changesAt(k)) continue;
-    const to = transition(k);
-    runs.push({ from, to, fixed: flags[(k + n - 1) % n]! });
-    from = to;
-  }
-  return runs;
-}
-
-/** Bisection for the arc length where the fixed/moving flag changes between a and b. */
-function refineTransition(a: number, b: number, flagAtA: boolean, isFixed: (s: number) => boolean, tol: number) {
-  let lo = a;
-  let hi = b;
-  for (let k = 0; k < 40 && hi - lo > tol / 20; k++) {
-    const mid = (lo + hi) / 2;
-    if (isFixed(mid) === flagAtA) lo = mid;
-    else hi = mid;
-  }
-  return (lo + hi) / 2;
-}
-
-function length(walk: RingWalk, r: { from: number; to: number }): number {
-  const d = r.to - r.from;
-  return d >= 0 ? d : d + walk.perimeterMm;
-}
-
-function r50(walk: RingWalk, r: { from: number; to: number }): number {
-  return r.from + length(walk, r) / 2;
-}
-
-/** True when run r lies inside the CCW interval [from, to]. */
-function inside(walk: RingWalk, r: Run, span: { from: number; to: number }): boolean {
-  const spanLength = length(walk, span);
-  const a = wrapArc(walk, r.from - span.from);
-  return a + length(walk, r) <= spanLength + 1e-9;
-}
-
-function spanFromRuns(
-  walk: RingWalk,
-  runs: readonly Run[],
-  station: number,
-  minFixedRun: number,
-  minMovingRun: number,
-): { from: number; to: number } | { status: 'identical' } | MovingSpanResult {
-  const significantFixed = runs.filter((r) => r.fixed && length(walk, r) >= minFixedRun);
-  const significantMoving = runs.filter((r) => !r.fixed && length(walk, r) >= minMovingRun);
-  if (significantMoving.length === 0) return { status: 'identical' };
-  if (significantFixed.length === 0) {
-    const at = walk.ring[0]!;
-    return {
-      status: 'unreconciled',
-      station,
-      at,
-      message: `Station ${station} shares no die-body wall with the other stations: no part of its boundary lies on all of theirs within the match tolerance. Check that every station is drawn in the same die-body frame.`,
-    };
-  }
-  // gaps between consecutive significant fixed runs, in CCW order
-  const sorted = [...significantFixed].sort((a, b) => a.from - b.from);
-  const gaps = sorted.map((f, k) => ({ from: wrapArc(walk, f.to), to: sorted[(k + 1) % sorted.length]!.from }));
-  const withMotion = gaps.filter((g) => significantMoving.some((m) => inside(walk, m, g)));
-  if (withMotion.length !== 1) {
-    const places = withMotion
-      .slice(0, 2)
-      .map((g) => pointAtArc(walk, r50(walk, g)))
-      .map((p) => `(${fmt(p[0])}, ${fmt(p[1])})`);
-    return {
-      status: 'unreconciled',
-      station,
-      at: pointAtArc(walk, r50(walk, withMotion[0] ?? gaps[0]!)),
-      message: `Station ${station} differs from the other stations in ${withMotion.length} separate places (near ${places.join(' and ')} mm) with die-body wall between them; one chain of plates can form only one contiguous span. Check that the fixed part of the profile is drawn the same in every station.`,
-    };
-  }
-  return withMotion[0]!;
-}
-
-function spanFromEnds(
-  walk: RingWalk,
-  runs: readonly Run[],
-  ends: { start: Point; end: Point },
-  useMotion: boolean,
-): { from: number; to: number } {
-  const sStart = closestArc(walk, ends.start);
-  const sEnd = closestArc(walk, ends.end);
-  // the span walked clockwise from start to end is the CCW interval [end, start]
-  const clockwise = { from: sEnd, to: sStart };
-  if (!useMotion) return clockwise;
-  const other = { from: sStart, to: sEnd };
-  const moving = (g: { from: number; to: number }) =>
-    runs.filter((r) => !r.fixed && inside(walk, r, g)).reduce((sum, r) => sum + length(walk, r), 0);
-  return moving(other) > moving(clockwise) ? other : clockwise;
-}
-
-function closestArc(walk: RingWalk, p: Point): number {
-  let best = Number.POSITIVE_INFINITY;
-  let bestS = 0;
-  const ring = walk.ring;
-  for (let i = 0; i < ring.length; i++) {
-    const a = ring[i]!;
-    const b = ring[(i + 1) % ring.length]!;
-    const dx = b[0] - a[0];
-    const dy = b[1] - a[1];
-    const len2 = dx * dx + dy * dy;
-    const t = len2 > 0 ? Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
-    const d = Math.hypot(a[0] + t * dx - p[0], a[1] + t * dy - p[1]);
-    if (d < best) {
-      best = d;
-      bestS = walk.cumulative[i]! + t * Math.sqrt(len2);
-    }
-  }
-  return bestS;
-}
-
-/**
- * Moves the span's ends along straight die-body walls: from each end, while the span continues on the carrier line of
- * the die-body edge it leaves, and no station's melt lies just beyond that line, the boundary there is wall.
- */
-function slideAlongWalls(
-  walk: RingWalk,
-  span: { from: number; to: number },
-  self: number,
-  orifices: readonly Region[],
-  tol: number,
-): { from: number; to: number; slideStart: number; slideEnd: number } {
-  const spanLength = length(walk, span);
-  const forward = slideOneEnd(walk, span.from, spanLength, +1, self, orifices, tol);
-  const backward = slideOneEnd(walk, span.to, spanLength - forward, -1, self, orifices, tol);
-  return { from: span.from + forward, to: span.to - backward, slideStart: forward, slideEnd: backward };
-}
-
-function slideOneEnd(
-  walk: RingWalk,
-  s0: number,
-  available: number,
-  dir: 1 | -1,
-  self: number,
-  orifices: readonly Region[],
-  tol: number,
-): number {
-  const back = Math.min(1.0, walk.perimeterMm / 100);
-  const p0 = pointAtArc(walk, s0);
-  const q = pointAtArc(walk, s0 - dir * back);
-  const dx = p0[0] - q[0];
-  const dy = p0[1] - q[1];
-  const len = Math.hypot(dx, dy);
-  if (len < tol) return 0;
-  const ux = dx / len;
-  const uy = dy / len;
-  // the die-body edge must itself be straight over `back`
-  const mid = pointAtArc(walk, s0 - (dir * back) / 2);
-  if (Math.abs((mid[0] - q[0]) * uy - (mid[1] - q[1]) * ux) > tol) return 0;
-  // outward normal: CCW ring has the melt on the left of travel; walking backwards flips it
-  const nx = dir * uy;
-  const ny = dir * -ux;
-  const probe = 3 * tol;
-  // true while the boundary `d` mm past the end still runs on the wall line with no melt beyond it
-  const onWall = (d: number, lastAlong: number): { ok: boolean; along: number } => {
-    const p = pointAtArc(walk, s0 + dir * d);
-    const along = (p[0] - p0[0]) * ux + (p[1] - p0[1]) * uy;
-    const across = (p[0] - p0[0]) * uy - (p[1] - p0[1]) * ux;
-    if (Math.abs(across) > tol || along <= lastAlong) return { ok: false, along };
-    const beyond: Point = [p[0] + nx * probe, p[1] + ny * probe];
-    return {
-      ok: !orifices.some((o, j) => j !== self && pointInRegion(beyond, o, DEFAULT_TOLERANCES) === 'inside'),
-      along,
-    };
-  };
-  const step = Math.max(tol, 0.05);
-  let slid = 0;
-  let lastAlong = 0;
-  while (slid < available) {
-    const next = Math.min(available, slid + step);
-    const probeResult = onWall(next, lastAlong);
-    if (!probeResult.ok) {
-      // the wall ends inside this step: bisect for where
-      let lo = slid;
-      let hi = next;
-      for (let k = 0; k < 30 && hi - lo > tol / 20; k++) {
-        const mid = (lo + hi) / 2;
-        if (onWall(mid, 0).ok) lo = mid;
-        else hi = mid;
-      }
-      return lo;
-    }
-    slid = next;
-    lastAlong = probeResult.along;
-  }
-  return slid;
-}
-
 /** Moves each span end onto the nearest ring vertex within `reach` mm of arc, so spans end on drawn corners. */
-function snapToVertices<T extends { from: number; to: number }>(walk: RingWalk, span: T, reach: number): T {
+function snapToVertices(walk: RingWalk, span: ArcInterval, reach: number): ArcInterval {
   const snap = (s: number): number => {
     let best = s;
     let bestGap = reach;
@@ -394,7 +320,17 @@ function snapToVertices<T extends { from: number; to: number }>(walk: RingWalk, 
     }
     return best;
   };
-  return { ...span, from: snap(span.from), to: snap(span.to) };
+  return { from: snap(span.from), to: snap(span.to) };
+}
+
+/** A place in a sentence: (x, y). */
+function fmtPlace(p: Point): string {
+  return `(${fmt(p[0])}, ${fmt(p[1])})`;
+}
+
+/** A point as it is written in the request: [x, y]. */
+function fmtPoint(p: Point): string {
+  return `[${fmt(p[0])}, ${fmt(p[1])}]`;
 }
 
 function fmt(x: number): string {

@@ -11,6 +11,7 @@ export interface RingWalk {
   readonly perimeterMm: number;
 }
 
+/** The arc-length walk of a ring: cumulative edge lengths from vertex 0, mm. */
 export function makeRingWalk(ring: Ring): RingWalk {
   const cumulative = [0];
   let s = 0;
@@ -76,4 +77,16 @@ export function subpathCcw(walk: RingWalk, from: number, to: number): Point[] {
   }
   out.push(pointAtArc(walk, start + length));
   return out;
+}
+
+/** Arc lengths every `stepMm` or closer along each edge, vertices included, mm. */
+export function sampleArcs(walk: RingWalk, stepMm: number): number[] {
+  const samples: number[] = [];
+  for (let i = 0; i < walk.ring.length; i++) {
+    const s0 = walk.cumulative[i]!;
+    const s1 = walk.cumulative[i + 1]!;
+    const pieces = Math.max(1, Math.ceil((s1 - s0) / stepMm));
+    for (let k = 0; k < pieces; k++) samples.push(s0 + ((s1 - s0) * k) / pieces);
+  }
+  return samples;
 }

@@ -14,6 +14,7 @@ export interface SegmentGrid {
   readonly cells: ReadonlyMap<number, readonly number[]>;
 }
 
+/** Buckets every edge of `ring` into the cells it passes within `queryRadiusMm` of, mm. */
 export function makeSegmentGrid(ring: Ring, queryRadiusMm: number): SegmentGrid {
   let minX = Number.POSITIVE_INFINITY;
   let minY = Number.POSITIVE_INFINITY;
@@ -25,6 +26,11 @@ export function makeSegmentGrid(ring: Ring, queryRadiusMm: number): SegmentGrid 
     maxX = Math.max(maxX, x);
     maxY = Math.max(maxY, y);
   }
+  // widen by the query radius so a point just outside the ring's box still finds the edges within reach
+  minX -= queryRadiusMm;
+  minY -= queryRadiusMm;
+  maxX += queryRadiusMm;
+  maxY += queryRadiusMm;
   const extent = Math.max(maxX - minX, maxY - minY, 1e-9);
   const cellMm = Math.max(extent / Math.max(4, Math.sqrt(ring.length) * 2), queryRadiusMm * 2);
   const cols = Math.floor((maxX - minX) / cellMm) + 1;
