@@ -2,6 +2,7 @@ import type { FastifyReply, FastifyRequest } from 'fastify';
 import type { Finding, Schedule } from '../domain/index.js';
 import { errorBody } from './error-catalogue.js';
 import { ScheduleWire, type ScheduleWireValue } from './schedule-schema.js';
+import { spanEndProblems } from './span-end-problems.js';
 import { toSchedule } from './to-schedule.js';
 import { unknownFields } from './unknown-fields.js';
 
@@ -19,8 +20,9 @@ export function unknownScheduleFields(request: FastifyRequest): Finding[] {
 }
 
 /**
- * Maps a zod-valid body to a domain schedule, or answers 400 `invalid_schedule` with every problem's field path and
- * returns null (the route then stops: nothing is computed or stored).
+ * Maps a zod-valid body to a domain schedule, or answers 400 `invalid_schedule` with every problem's field path (a
+ * bad ring, the station order, an explicit moving-span end off a station's boundary) and returns null (the route then
+ * stops: nothing is computed or stored).
  */
 export function scheduleOrReject(
   body: ScheduleWireValue,
@@ -28,12 +30,13 @@ export function scheduleOrReject(
   reply: FastifyReply,
 ): Schedule | null {
   const mapped = toSchedule(body);
-  if (mapped.ok) return mapped.schedule;
+  const problems = mapped.ok ? spanEndProblems(mapped.schedule) : mapped.problems;
+  if (mapped.ok && problems.length === 0) return mapped.schedule;
   void reply.code(400).send({
     ...errorBody(
       'invalid_schedule',
       'The schedule describes an orifice or a station order the die cannot make.',
-      mapped.problems,
+      problems,
     ),
     request_id: request.id,
   });

@@ -77,6 +77,16 @@ export function checkSchedule(schedule: Schedule): ScheduleCheck {
       at: spans.at,
       message: spans.message,
     });
+  } else if (spans.status === 'found' && spans.differsOutside) {
+    const { station, at } = spans.differsOutside;
+    findings.push({
+      code: 'SPAN_DIFFERS_OUTSIDE',
+      severity: 'warning',
+      station,
+      positionM: schedule.stations[station]?.positionM,
+      at,
+      message: `Outside the given moving span, station ${station} differs from station 0 near (${round2(at[0])}, ${round2(at[1])}) mm: the die body is one shape, so the plan will not reach this station's orifice there. Move moving_span.start or end so the span covers it, if the plates should form that part.`,
+    });
   } else if (spans.status === 'unknown') {
     findings.push({ code: 'SPAN_UNKNOWN', severity: 'info', message: spans.reason });
   }
@@ -107,4 +117,8 @@ function sortFindings(findings: readonly Finding[]): Finding[] {
   return [...findings].sort(
     (a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] || (a.station ?? -1) - (b.station ?? -1),
   );
+}
+
+function round2(x: number): number {
+  return Math.round(x * 100) / 100;
 }
