@@ -5,17 +5,26 @@ import { isNearBoundary, type SegmentGrid } from './segment-grid.js';
 /**
  * Splits one station's outer boundary into runs that lie within `tolMm` of every other station's boundary (common)
  * and runs that do not (differing), in counter-clockwise order. The boundary is sampled every
- * max(tol, min(0.25 mm, perimeter/4000)) and each change of kind is bisected to tol/20, mm. Cost: samples × stations
- * grid look-ups, so it grows linearly with the number of stations.
+ * max(tol, min(0.1 mm, perimeter/1000)), so a differing run of 0.2 mm is seen twice, and each change of kind is
+ * bisected to tol/20, mm. Cost: samples × stations grid look-ups, so it grows linearly with the number of stations.
  *
  * @param others one grid per other station, built for a query radius of at least `tolMm`.
  */
 export function findCommonRuns(walk: RingWalk, others: readonly SegmentGrid[], tolMm: number): BoundaryRun[] {
+  // the station that was last too far is asked first: neighbouring samples tend to fail on the same one
+  let lastFar = 0;
   const isCommon = (s: number): boolean => {
     const p = pointAtArc(walk, s);
-    return others.every((g) => isNearBoundary(g, p, tolMm));
+    if (others.length > 0 && !isNearBoundary(others[lastFar]!, p, tolMm)) return false;
+    for (let j = 0; j < others.length; j++) {
+      if (j !== lastFar && !isNearBoundary(others[j]!, p, tolMm)) {
+        lastFar = j;
+        return false;
+      }
+    }
+    return true;
   };
-  const samples = sampleArcs(walk, Math.max(tolMm, Math.min(0.25, walk.perimeterMm / 4000)));
+  const samples = sampleArcs(walk, Math.max(tolMm, Math.min(0.1, walk.perimeterMm / 1000)));
   const flags = samples.map(isCommon);
   const n = samples.length;
   const changesAt = (k: number) => flags[k] !== flags[(k + n - 1) % n];

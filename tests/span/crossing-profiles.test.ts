@@ -102,6 +102,19 @@ describe('findMovingSpans with stations that cross each other', () => {
   }
 });
 
+describe('findMovingSpans on a dense schedule', () => {
+  it('reconciles 500 see-saw stations 5 µm apart in one pass, each from corner to corner', () => {
+    const tilts = Array.from({ length: 500 }, (_, k) => k * 0.005);
+    const spans = spansOf(findMovingSpans(tilts.map(tilted), auto));
+    tilts.forEach((t, i) => {
+      // constructed analytically: station i's top is the line from (0, 8 − t) to (40, 8 + t)
+      expect(spans[i]!.start[1]).toBeCloseTo(8 - t, 6);
+      expect(spans[i]!.end[1]).toBeCloseTo(8 + t, 6);
+      expect(spans[i]!.lengthMm).toBeCloseTo(Math.hypot(40, 2 * t), 6);
+    });
+  });
+});
+
 describe('findMovingSpans with explicit ends', () => {
   it('takes the see-saw span between the closest boundary points to the given ends', () => {
     const tilts = [0.25, 0, -0.25];
