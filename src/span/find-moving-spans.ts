@@ -135,7 +135,7 @@ function spansRoundWall(orifices: readonly Region[], walks: readonly RingWalk[],
       status: 'unreconciled',
       station: 0,
       at: ref.ring[0]!,
-      message: `The stations share no die-body wall: no stretch of boundary lies on all of them, in the same place and direction, within the match tolerance of ${tol} mm. Check that every station is drawn in the same die-body frame, or give moving_span.start and end where the plates meet the die body.`,
+      message: `The stations share no die-body wall: no stretch of boundary lies on all of them, in the same place and direction, within the match tolerance of ${tol} mm. Check that every station is drawn in the same die-body frame (raise moving_span.match_tolerance_mm if the die body is drawn less precisely than that in some stations), or give moving_span.start and end where the plates meet the die body.`,
       suggestedEnds: null,
     };
   }

@@ -184,6 +184,34 @@ describe('findMovingSpans with explicit ends', () => {
 });
 
 describe('findMovingSpans when the span cannot be reconciled', () => {
+  it('finds no die-body wall where two stations only cross, and says which options help', () => {
+    // constructed analytically: a 10 mm square and the same square turned 2° about its centre cross at the middle
+    // of every edge and nowhere coincide in direction
+    const turn = (p: Point): Point => {
+      const a = (2 * Math.PI) / 180;
+      const [x, y] = [p[0] - 5, p[1] - 5];
+      return [5 + x * Math.cos(a) - y * Math.sin(a), 5 + x * Math.sin(a) + y * Math.cos(a)];
+    };
+    const square: Point[] = [
+      [0, 0],
+      [10, 0],
+      [10, 10],
+      [0, 10],
+    ];
+    const result = findMovingSpans(
+      [
+        { outer: square, holes: [] },
+        { outer: square.map(turn), holes: [] },
+      ],
+      auto,
+    );
+    expect(result.status).toBe('unreconciled');
+    if (result.status !== 'unreconciled') return;
+    expect(result.message).toMatch(/share no die-body wall/);
+    expect(result.message).toMatch(/match_tolerance_mm/);
+    expect(result.message).toMatch(/moving_span\.start and end/);
+  });
+
   it('names moving_span with suggested ends that then reconcile the stations', () => {
     // constructed case: the base dips 1 mm between x = 10 and 30 in one station, the top rises in the other; the side
     // walls are common to both, so there are two separate walls
