@@ -110,7 +110,15 @@ export const MechanisationWire = z.object({
   layer_model: z.string(),
   link_count: z.number().int(),
   mobility: z.object({ grubler: z.number().int(), numerical: z.number().int() }).nullable(),
-  transmission_angle_deg: z.object({ min: z.number().nullable(), max: z.number().nullable() }),
+  transmission_angle_deg: z
+    .object({
+      min: z.number().nullable(),
+      max: z.number().nullable(),
+      joints: z
+        .array(z.object({ joint: z.string(), min: z.number(), max: z.number(), worst: z.number() }))
+        .describe('plate–plate joints where two plates drive each other (the middle joint of a dyad), over the motion'),
+    })
+    .describe('binary links (min, max) and plate–plate joints, over the whole motion, degrees'),
   stations: z.array(
     z.object({
       residual_mm: z.number().describe('driven pivots vs fitted pivots'),

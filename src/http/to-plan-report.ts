@@ -114,6 +114,12 @@ export function toPlanReport(record: PlanRecord): PlanReport {
           transmission_angle_deg: {
             min: plan.mechanisation.transmission.minDeg === null ? null : sig(plan.mechanisation.transmission.minDeg),
             max: plan.mechanisation.transmission.maxDeg === null ? null : sig(plan.mechanisation.transmission.maxDeg),
+            joints: plan.mechanisation.transmission.joints.map((j) => ({
+              joint: j.jointId,
+              min: sig(j.minDeg),
+              max: sig(j.maxDeg),
+              worst: sig(j.worstDeg),
+            })),
           },
           stations: plan.mechanisation.stations.map((s) => ({
             residual_mm: sig(s.residualMm),

@@ -59,6 +59,7 @@ export {
 } from './trace-actuator-path.js';
 export { pointVelocity, solveVelocities, type VelocityAnalysis } from './solve-velocities.js';
 export { type TransmissionAngle, transmissionAngles } from './transmission-angles.js';
+export { type DyadTransmissionAngle, dyadTransmissionAngles } from './dyad-transmission-angles.js';
 export { findBranchDefects } from './find-branch-defects.js';
 export { type CircuitCheck, checkCircuit } from './check-circuit.js';
 export { findOrderDefect, type OrderCheck } from './find-order-defect.js';

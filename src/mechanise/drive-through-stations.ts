@@ -1,6 +1,7 @@
 import {
   checkCircuit,
   createPositionSolver,
+  dyadTransmissionAngles,
   type PathStatus,
   type Pose,
   type TraceOptions,
@@ -37,6 +38,28 @@ export interface LinkTransmission {
   readonly maxDeg: number;
 }
 
+/** Where along the motion something was measured: at a distinct position, or a fraction of the way along a leg. */
+export interface MotionPlace {
+  readonly position: number | null;
+  readonly leg: readonly [number, number] | null;
+  /** 0 … 1 along the leg (0 at a position). */
+  readonly fraction: number;
+}
+
+/**
+ * Transmission angle at a plate–plate joint closing a dyad (`dyadTransmissionAngles`) over the whole motion, degrees:
+ * its extremes and the angle farthest from 90° with where it occurs. Reported as findings, not defects: a chain of
+ * nearly aligned plates closing onto a ground pivot is near its stretched limit there, which holds position well but
+ * drives poorly.
+ */
+export interface JointTransmission {
+  readonly jointId: string;
+  readonly minDeg: number;
+  readonly maxDeg: number;
+  readonly worstDeg: number;
+  readonly worstAt: MotionPlace;
+}
+
 /** One leg driven from a distinct position to the next in schedule order. */
 export interface LegTrace {
   readonly from: number;
@@ -55,6 +78,8 @@ export interface MotionCheck {
   readonly arrivals: readonly (Pose | null)[];
   readonly legs: readonly LegTrace[];
   readonly transmission: readonly LinkTransmission[];
+  /** Plate–plate joints closing a dyad, over the whole motion. */
+  readonly jointTransmission: readonly JointTransmission[];
   /** Smallest sin μ of any binary link anywhere along the motion; 1 without links. */
   readonly worstTransmissionSine: number;
   /** Largest condition estimate of the driven Jacobian met along the motion (dimensionless). */
@@ -77,7 +102,8 @@ export interface DriveSettings {
  * continuation (`traceActuatorPath`) from the solved configuration toward the next station's actuator values. A leg
  * between stations of opposite determinant sign is a branch defect and is not traced; a trace that stops is an order
  * defect (a dead point lies inside the leg); a trace that completes away from the station is a circuit defect. The
- * transmission angle of every binary link is measured at every accepted step and at the stations. For a
+ * transmission angle of every binary link (a defect outside the limit band), and of every plate–plate joint that closes
+ * a dyad (`dyadTransmissionAngles`; reported, not a defect), is measured at every accepted step and at the stations. For a
  * back-and-forth schedule the actuators simply reverse between legs: only the legs themselves must be clean.
  */
 export function driveThroughStations(
@@ -92,13 +118,28 @@ export function driveThroughStations(
   const signs: number[] = [];
   let maxCondition = 0;
   const extremes = new Map<string, { min: number; max: number }>();
-  const measure = (pose: Pose) => {
-    for (const t of transmissionAngles(pose)) {
-      const e = extremes.get(t.linkId);
-      if (!e) extremes.set(t.linkId, { min: t.mu, max: t.mu });
+  const note = (id: string, mu: number) => {
+    const e = extremes.get(id);
+    if (!e) extremes.set(id, { min: mu, max: mu });
+    else {
+      e.min = Math.min(e.min, mu);
+      e.max = Math.max(e.max, mu);
+    }
+  };
+  // plate–plate joints that close a dyad: extremes and where the angle is worst (farthest from 90°)
+  const jointExtremes = new Map<string, { min: number; max: number; worst: number; at: MotionPlace }>();
+  const measure = (pose: Pose, at: MotionPlace) => {
+    for (const t of transmissionAngles(pose)) note(t.linkId, t.mu);
+    for (const t of dyadTransmissionAngles(pose)) {
+      const e = jointExtremes.get(t.jointId);
+      if (!e) jointExtremes.set(t.jointId, { min: t.mu, max: t.mu, worst: t.mu, at });
       else {
         e.min = Math.min(e.min, t.mu);
         e.max = Math.max(e.max, t.mu);
+        if (Math.abs(Math.PI / 2 - t.mu) > Math.abs(Math.PI / 2 - e.worst)) {
+          e.worst = t.mu;
+          e.at = at;
+        }
       }
     }
   };
@@ -117,7 +158,7 @@ export function driveThroughStations(
     maxCondition = Math.max(maxCondition, r.conditionEstimate);
     solved.push(r.pose);
     signs.push(r.jacobianSign);
-    measure(r.pose);
+    measure(r.pose, { position: p, leg: null, fraction: 0 });
   });
   const arrivals: (Pose | null)[] = expected.map(() => null);
   // the schedule starts at its first station's position, reached by solving there
@@ -144,7 +185,7 @@ export function driveThroughStations(
     traces.push({ from, to, status: trace.status, reason: trace.reason, steps: trace.acceptedSteps });
     for (const sample of trace.samples) {
       maxCondition = Math.max(maxCondition, sample.conditionEstimate);
-      measure(sample.pose);
+      measure(sample.pose, { position: null, leg: [from, to], fraction: sample.s });
     }
     if (trace.status !== 'completed') {
       defects.push({
@@ -188,12 +229,20 @@ export function driveThroughStations(
       });
     }
   }
+  const joints: JointTransmission[] = [...jointExtremes].map(([jointId, e]) => ({
+    jointId,
+    minDeg: toDegrees(e.min),
+    maxDeg: toDegrees(e.max),
+    worstDeg: toDegrees(e.worst),
+    worstAt: e.at,
+  }));
   return {
     ok: defects.length === 0,
     defects,
     arrivals,
     legs: traces,
     transmission,
+    jointTransmission: joints,
     worstTransmissionSine,
     maxCondition,
   };

@@ -1,7 +1,7 @@
 import type { Finding } from '../domain/index.js';
 import type { Point, Region } from '../geometry/index.js';
 import type { Mechanism } from '../kinematics/index.js';
-import type { LegTrace, LinkTransmission, MotionDefect } from './drive-through-stations.js';
+import type { JointTransmission, LegTrace, LinkTransmission, MotionDefect } from './drive-through-stations.js';
 import type { LinkDesign } from './link-design.js';
 import type { MechaniseOptions } from './mechanise-options.js';
 import type { PlateSearch } from './reduced-mode.js';
@@ -88,6 +88,8 @@ export interface MechanisationResult {
     readonly links: readonly LinkTransmission[];
     readonly minDeg: number | null;
     readonly maxDeg: number | null;
+    /** Plate–plate joints closing a dyad (the plates drive each other there), over the whole motion. */
+    readonly joints: readonly JointTransmission[];
   };
   /** Largest condition estimate of the driven Jacobian along the motion (dimensionless). */
   readonly maxCondition: number | null;

@@ -228,7 +228,7 @@ function noMechanism(
     stations: [],
     legs: [],
     defects,
-    transmission: { links: [], minDeg: null, maxDeg: null },
+    transmission: { links: [], minDeg: null, maxDeg: null, joints: [] },
     maxCondition: null,
     plates,
     smallestActuatorCount: smallest,
@@ -243,6 +243,7 @@ function transmissionSummary(design: EvaluatedDesign): MechanisationResult['tran
     links,
     minDeg: links.length > 0 ? Math.min(...links.map((t) => t.minDeg)) : null,
     maxDeg: links.length > 0 ? Math.max(...links.map((t) => t.maxDeg)) : null,
+    joints: design.motion.jointTransmission,
   };
 }
 

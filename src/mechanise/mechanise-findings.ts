@@ -92,6 +92,25 @@ export function successFindings(
       message: `${t.linkId}'s transmission angle reaches ${fmt(bad)}° (usual rule ${goodMin}°–${goodMax}°): it still drives, but with more pin force and sensitivity to clearance there.`,
     });
   }
+  const { stations } = context;
+  for (const t of transmission.joints) {
+    if (t.worstDeg >= goodMin && t.worstDeg <= goodMax) continue;
+    const at = t.worstAt;
+    const station = at.position !== null ? stations.representatives[at.position]! : null;
+    const where =
+      at.leg !== null
+        ? `between stations ${stations.representatives[at.leg[0]]} and ${stations.representatives[at.leg[1]]}, ${Math.round(at.fraction * 100)} % of the way`
+        : `at station ${station}`;
+    const limit = t.worstDeg < goodMin ? goodMin : goodMax;
+    findings.push({
+      code: 'TRANSMISSION_ANGLE_AT_JOINT',
+      severity: 'warning',
+      ...(station !== null ? { station } : at.leg ? { station: stations.representatives[at.leg[0]]! } : {}),
+      value: t.worstDeg,
+      limit,
+      message: `At ${t.jointId} two plates drive each other at a transmission angle of ${fmt(t.worstDeg)}° ${where} (usual rule ${goodMin}°–${goodMax}°; over the motion ${fmt(t.minDeg)}°–${fmt(t.maxDeg)}°). Near 0° or 180° the plates are close to a stretched or folded dead point: melt pressure there loads the pins and actuator heavily and the plates' position becomes sensitive to pin clearance. A link to one of the two plates, or a different actuator place, would help.`,
+    });
+  }
   for (const link of design.links) {
     if (link.residualMm > 1e-6) {
       findings.push({
