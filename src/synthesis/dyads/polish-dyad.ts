@@ -15,8 +15,10 @@ export interface PolishedDyad {
  * (C, c), with ∂Fᵢ/∂C = 2(P₁ − Pᵢ) and ∂Fᵢ/∂c = 2R₁ᵀ(C − P₁) − 2Rᵢᵀ(C − Pᵢ). With 4 positions (3 equations) each step
  * is the minimum-norm one, Δ = Jᵀ(JJᵀ)⁻¹(−F), which converges quadratically onto the nearest point of the solution
  * curve (Ben-Israel, J. Math. Anal. Appl. 15, 1966); with 5 the system is square; with more, Gauss–Newton.
- * `converged` when max|Fᵢ| is at rounding level (≤ 1e-15·max|C − Pᵢ|²) or the step ≤ 1e-14·scale; false when a step
- * is singular or not finite (the last finite iterate is returned) or the iterations run out.
+ * `converged` when max|Fᵢ| is at rounding level or the step ≤ 1e-14·max(scale, M); false when a step is singular or
+ * not finite (the last finite iterate is returned) or the iterations run out. Rounding level is 1e-15·V·max(V, M),
+ * V = max|C − Pᵢ| and M the largest coordinate magnitude taking part (|C|, |c| + |dᵢ|): C − Pᵢ is a difference of
+ * coordinates of size M, so a pair far from the origin (M ≫ V) cannot meet a test scaled by V² alone.
  */
 export function polishDyad(
   poses: readonly RelativePose[],
@@ -38,6 +40,10 @@ export function polishDyad(
     const jac: number[][] = [];
     let fMax = 0;
     let vMax = v1[0] * v1[0] + v1[1] * v1[1];
+    let magnitude = Math.max(
+      Math.hypot(C[0], C[1]),
+      Math.hypot(c[0], c[1]) + Math.hypot(pose0.origin[0], pose0.origin[1]),
+    );
     for (let i = 1; i <= m; i++) {
       const pose = poses[i]!;
       const pi = placePoint(pose, c);
@@ -47,17 +53,19 @@ export function polishDyad(
       f.push(fi);
       fMax = Math.max(fMax, Math.abs(fi));
       vMax = Math.max(vMax, vi[0] * vi[0] + vi[1] * vi[1]);
+      magnitude = Math.max(magnitude, Math.hypot(c[0], c[1]) + Math.hypot(pose.origin[0], pose.origin[1]));
       jac.push([2 * (p1[0] - pi[0]), 2 * (p1[1] - pi[1]), 2 * (g1[0] - gi[0]), 2 * (g1[1] - gi[1])]);
     }
     if (!Number.isFinite(fMax)) return { centre: C, circlePointLocal: c, converged: false, iterations: it };
-    if (fMax <= 1e-15 * vMax) {
+    const v = Math.sqrt(vMax);
+    if (fMax <= 1e-15 * v * Math.max(v, magnitude)) {
       return { centre: C, circlePointLocal: c, converged: true, iterations: it };
     }
     const step = newtonStep(jac, f);
     if (!step) return { centre: C, circlePointLocal: c, converged: false, iterations: it };
     x = x.map((v, k) => v + step[k]!);
     if (!x.every(Number.isFinite)) return { centre: C, circlePointLocal: c, converged: false, iterations: it + 1 };
-    if (Math.hypot(...step) <= 1e-14 * scaleMm) {
+    if (Math.hypot(...step) <= 1e-14 * Math.max(scaleMm, magnitude)) {
       return { centre: [x[0]!, x[1]!], circlePointLocal: [x[2]!, x[3]!], converged: true, iterations: it + 1 };
     }
   }
