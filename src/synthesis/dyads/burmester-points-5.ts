@@ -13,33 +13,55 @@ export interface BurmesterOptions {
   readonly directions: number;
   /** Position triples (each with its three poles as bases) scanned, best-conditioned first. @default 2 */
   readonly triples: number;
-  /** Pairs whose centre, or circle point at station 1, lies farther than this from the pose origins' centroid are left out, mm. @default 10000 */
+  /**
+   * Pairs whose centre, or circle point at station 1, lies farther than this from the pose origins' centroid are
+   * left out (and counted in `beyondExtent`), mm. @default Infinity (every real pair is returned)
+   */
   readonly extentMm: number;
-  /** A pair is returned only when its `dyadResidual` over the five positions is at most this, mm. @default 1e-8 */
-  readonly acceptResidualMm: number;
-  /** Two pairs whose centres and circle points both agree within this are one, mm. @default 1e-6 */
-  readonly mergeMm: number;
+  /**
+   * A pair is returned only when its `dyadResidual` over the five positions is at most this fraction of its length
+   * scale (the largest of the pose scale, the link length and the distances of its pins from the pose origins'
+   * centroid): far pairs carry rounding in proportion to their coordinates. Dimensionless. @default 1e-10
+   */
+  readonly acceptRelative: number;
+  /**
+   * Two pairs are one (the same root reached from several seeds) when their centres and circle points both agree
+   * within this · L · (L / S), L their length scale and S the pose scale (`poseScale`, ≥ 1 mm): a root far from the
+   * poses is fixed only to about L/S times the rounding of a near one. Dimensionless. @default 1e-7
+   */
+  readonly mergeRelative: number;
 }
 
 export function resolveBurmesterOptions(partial: Partial<BurmesterOptions> = {}): BurmesterOptions {
-  const o = { directions: 1440, triples: 2, extentMm: 10_000, acceptResidualMm: 1e-8, mergeMm: 1e-6, ...partial };
+  const o = {
+    directions: 1440,
+    triples: 2,
+    extentMm: Number.POSITIVE_INFINITY,
+    acceptRelative: 1e-10,
+    mergeRelative: 1e-7,
+    ...partial,
+  };
   if (!Number.isInteger(o.directions) || o.directions < 8) throw new Error('burmesterPoints5: directions must be ≥ 8');
   if (!Number.isInteger(o.triples) || o.triples < 1) throw new Error('burmesterPoints5: triples must be ≥ 1');
-  if (!(o.extentMm > 0) || !(o.acceptResidualMm > 0) || !(o.mergeMm > 0)) {
-    throw new Error('burmesterPoints5: extentMm, acceptResidualMm and mergeMm must be > 0');
+  if (!(o.extentMm > 0) || !(o.acceptRelative > 0) || !(o.mergeRelative > 0)) {
+    throw new Error('burmesterPoints5: extentMm, acceptRelative and mergeRelative must be > 0');
   }
   return o;
 }
 
 export interface BurmesterPoints {
   /**
-   * `ok`: `pairs` holds every real pair found (0, 2 or 4 generically). `degenerate`: no three positions with three
-   * finite poles (nearly pure translation), or more than four distinct pairs (a special motion with infinitely many).
+   * `ok`: `pairs` holds every real pair found within `extentMm` (0, 2 or 4 with those beyond it, generically; 1 or 3
+   * only when two roots meet). `degenerate`: two positions coincide (only four distinct positions: a whole curve of
+   * centre points, see `centrePointCurve4`), B turns about one fixed point, no three positions have three finite
+   * poles (nearly pure translation), or more than four distinct pairs (a special motion with infinitely many).
    */
   readonly status: 'ok' | 'degenerate';
   readonly reason: string;
   /** Verified Burmester point pairs (centre in A, circle point in B), ordered by centre x then y. */
   readonly pairs: readonly Dyad[];
+  /** Verified pairs left out because a pin lies beyond `extentMm`. */
+  readonly beyondExtent: number;
   /** The ten poles Pᵢⱼ (0-based stations). */
   readonly poles: readonly DisplacementPole[];
 }
@@ -54,6 +76,12 @@ interface Triple {
   readonly conditioning: number;
 }
 
+/** A verified pair with the length its tolerances scale with, mm. */
+interface Found {
+  readonly dyad: Dyad;
+  readonly lengthMm: number;
+}
+
 /**
  * Five finitely separated positions: the Burmester point pairs, the centre and circle points of the dyads that keep
  * one length at all five positions; at most four are real (Burmester 1888; Sandor & Erdman, *Advanced Mechanism
@@ -66,9 +94,17 @@ interface Triple {
  * of their resultant, a smooth function of the ray direction. The resultant is scanned over [0, π), its sign changes
  * bisected and its near-zero local minima kept, for each of the three common poles of the best-conditioned
  * `triples` triples. Every shared root seeds Newton's method on the four equal-distance equations (`polishDyad`,
- * started from `circlePointForCentre`); a seed is kept only when Newton converges, the residual over all five
- * positions is within `acceptResidualMm` and the pair lies within `extentMm`. The common poles themselves (where the
- * scan also finds zeros) fail that check. Duplicates within `mergeMm` are merged.
+ * started from `circlePointForCentre`); a seed is kept only when Newton converges and the residual over all five
+ * positions is within `acceptRelative` of the pair's length scale L (the largest of the pose scale, the link length
+ * and its pins' distances from the pose origins' centroid). The common poles themselves (where the scan also finds
+ * zeros) fail that check. Seeds that reach one root agree to rounding, which grows with L and, as a far root is
+ * ill-conditioned, with L/S (S the pose scale), so two pairs are merged when centres and circle points both agree
+ * within `mergeRelative`·L·(L/S): an absolute tolerance kept far pairs (L of metres) many times over and reported
+ * ordinary positions as having more than four.
+ *
+ * Degenerate input, judged before the scan: two positions that coincide (rotation within 1e-9 rad and origins within
+ * 1e-9 of the pose scale; the fifth position then adds no condition), a pure rotation about one point (all ten poles
+ * coincide), or no triple with three finite poles. After it: more than four distinct pairs.
  *
  * @param poses  pose of B relative to A at exactly 5 stations (throws otherwise)
  */
@@ -79,54 +115,115 @@ export function burmesterPoints5(
   checkPoses(poses, 'burmesterPoints5', 5);
   const options = resolveBurmesterOptions(partialOptions);
   const poles = displacementPoles(poses);
+  const { reference, scaleMm } = poseScale(poses);
+  const degenerate = (reason: string): BurmesterPoints => ({
+    status: 'degenerate',
+    reason,
+    pairs: [],
+    beyondExtent: 0,
+    poles,
+  });
+  const repeated = coincidentPositions(poses, scaleMm);
+  if (repeated) {
+    return degenerate(
+      `positions ${repeated[0] + 1} and ${repeated[1] + 1} coincide: only four distinct positions, whose centre points ` +
+        'fill a curve (use the centre-point curve)',
+    );
+  }
+  const pivot = commonPole(poles, reference, scaleMm);
+  if (pivot) {
+    return degenerate(
+      `B turns about one fixed point (${pivot[0].toFixed(3)}, ${pivot[1].toFixed(3)}) mm at all five positions: every ` +
+        'point of B keeps its distance to it, a whole family of links rather than Burmester pairs',
+    );
+  }
   const triples = usableTriples(poses).slice(0, options.triples);
   if (triples.length === 0) {
-    return {
-      status: 'degenerate',
-      reason: 'no three positions have three finite poles: the positions are nearly pure translations',
-      pairs: [],
-      poles,
-    };
+    return degenerate('no three positions have three finite poles: the positions are nearly pure translations');
   }
-  const { reference, scaleMm } = poseScale(poses);
-  const within = (p: Point): boolean => Math.hypot(p[0] - reference[0], p[1] - reference[1]) <= options.extentMm;
-  const pairs: Dyad[] = [];
+  const fromReference = (p: Point): number => Math.hypot(p[0] - reference[0], p[1] - reference[1]);
+  const found: Found[] = [];
   const consider = (centre: Point, scale: number): void => {
     const seed = circlePointForCentre(poses, centre);
     if (seed.status !== 'ok') return;
     const polished = polishDyad(poses, centre, seed.circlePointLocal, scale);
     if (!polished.converged) return;
     const dyad = measureDyad(poses, polished.centre, polished.circlePointLocal);
-    if (!(dyad.residualMm <= options.acceptResidualMm)) return;
-    if (!within(dyad.centre) || !within(placePoint(poses[0]!, dyad.circlePointLocal))) return;
-    const same = pairs.findIndex(
-      (p) =>
-        Math.hypot(p.centre[0] - dyad.centre[0], p.centre[1] - dyad.centre[1]) <= options.mergeMm &&
-        Math.hypot(
-          p.circlePointLocal[0] - dyad.circlePointLocal[0],
-          p.circlePointLocal[1] - dyad.circlePointLocal[1],
-        ) <= options.mergeMm,
+    const lengthMm = Math.max(
+      scaleMm,
+      dyad.radiusMm,
+      fromReference(dyad.centre),
+      fromReference(placePoint(poses[0]!, dyad.circlePointLocal)),
     );
-    if (same < 0) pairs.push(dyad);
-    else if (dyad.residualMm < pairs[same]!.residualMm) pairs[same] = dyad;
+    if (!(dyad.residualMm <= options.acceptRelative * lengthMm)) return;
+    const same = found.findIndex((f) => {
+      const length = Math.max(lengthMm, f.lengthMm);
+      const limit = options.mergeRelative * length * (length / scaleMm);
+      return (
+        Math.hypot(f.dyad.centre[0] - dyad.centre[0], f.dyad.centre[1] - dyad.centre[1]) <= limit &&
+        Math.hypot(
+          f.dyad.circlePointLocal[0] - dyad.circlePointLocal[0],
+          f.dyad.circlePointLocal[1] - dyad.circlePointLocal[1],
+        ) <= limit
+      );
+    });
+    if (same < 0) found.push({ dyad, lengthMm });
+    else if (dyad.residualMm < found[same]!.dyad.residualMm) found[same] = { dyad, lengthMm };
   };
 
   for (const triple of triples) {
     for (const base of triple.bases) {
-      const scale = Math.max(scaleMm, Math.hypot(base[0] - reference[0], base[1] - reference[1]));
+      const scale = Math.max(scaleMm, fromReference(base));
       for (const centre of sharedRootSeeds(poses, triple, base, options.directions)) consider(centre, scale);
     }
   }
-  pairs.sort((p, q) => p.centre[0] - q.centre[0] || p.centre[1] - q.centre[1]);
-  if (pairs.length > 4) {
+  const within = (f: Found): boolean =>
+    fromReference(f.dyad.centre) <= options.extentMm &&
+    fromReference(placePoint(poses[0]!, f.dyad.circlePointLocal)) <= options.extentMm;
+  const pairs = found
+    .filter(within)
+    .map((f) => f.dyad)
+    .sort((p, q) => p.centre[0] - q.centre[0] || p.centre[1] - q.centre[1]);
+  const beyondExtent = found.length - pairs.length;
+  if (found.length > 4) {
     return {
       status: 'degenerate',
-      reason: `${pairs.length} distinct pairs: more than Burmester's four, so the positions are special (every point of a curve may fit)`,
+      reason: `${found.length} distinct pairs: more than Burmester's four, so the positions are special (every point of a curve may fit)`,
       pairs,
+      beyondExtent,
       poles,
     };
   }
-  return { status: 'ok', reason: `${pairs.length} real pair(s) found`, pairs, poles };
+  const beyond = beyondExtent > 0 ? `, ${beyondExtent} more beyond extentMm ${options.extentMm} mm` : '';
+  return { status: 'ok', reason: `${pairs.length} real pair(s) found${beyond}`, pairs, beyondExtent, poles };
+}
+
+/** The pole shared by all ten displacements (a pure rotation about one point), within 1e-9 of the scale; else null. */
+function commonPole(poles: readonly DisplacementPole[], reference: Point, scaleMm: number): Point | null {
+  const first = poles[0]?.pole;
+  if (!first) return null;
+  const limit = 1e-9 * Math.max(scaleMm, Math.hypot(first[0] - reference[0], first[1] - reference[1]));
+  for (const { pole } of poles) {
+    if (!pole || !(Math.hypot(pole[0] - first[0], pole[1] - first[1]) <= limit)) return null;
+  }
+  return first;
+}
+
+/**
+ * The first two positions (0-based) that coincide: rotations within 1e-9 rad (half-angle sine) and origins within
+ * 1e-9 of the pose scale; null when all five are distinct.
+ */
+function coincidentPositions(poses: readonly RelativePose[], scaleMm: number): [number, number] | null {
+  for (let i = 0; i < poses.length; i++) {
+    for (let j = i + 1; j < poses.length; j++) {
+      const a = poses[i]!;
+      const b = poses[j]!;
+      const turn = Math.abs(Math.sin((b.angleRad - a.angleRad) / 2));
+      const shift = Math.hypot(b.origin[0] - a.origin[0], b.origin[1] - a.origin[1]);
+      if (turn <= 1e-9 && shift <= 1e-9 * scaleMm) return [i, j];
+    }
+  }
+  return null;
 }
 
 /** Triples of positions whose three poles are finite, best-conditioned (largest smallest half-angle sine) first. */
