@@ -183,17 +183,29 @@ export function linkCandidates(context: MechaniseContext, body: string): PlateCa
     }
   }
   const keep = options.candidatesPerPlate;
+  // exact links first (they reproduce the stations to round-off), then by transmission, then the shorter
   const best = (key: 'up' | 'down') =>
     screened
       .filter((c) => c[key] !== null)
-      .sort((p, q) => q[key]! - p[key]! || p.link.lengthMm - q.link.lengthMm)
+      .sort((p, q) => inexact(p) - inexact(q) || q[key]! - p[key]! || p.link.lengthMm - q.link.lengthMm)
       .slice(0, keep);
   const candidates = [...new Set([...best('up'), ...best('down')])];
   candidates.sort(
-    (p, q) => Math.max(q.up ?? 0, q.down ?? 0) - Math.max(p.up ?? 0, p.down ?? 0) || p.link.lengthMm - q.link.lengthMm,
+    (p, q) =>
+      inexact(p) - inexact(q) ||
+      Math.max(q.up ?? 0, q.down ?? 0) - Math.max(p.up ?? 0, p.down ?? 0) ||
+      p.link.lengthMm - q.link.lengthMm,
   );
   return { body, candidates, tried, triedFromGround, rejections, groundRejections, pole };
 }
+
+/** 0 for an exact link (residual within round-off), 1 for one rigid only to within the residual limit. */
+function inexact(c: LinkCandidate): number {
+  return c.link.residualMm <= EXACT_LINK_MM ? 0 : 1;
+}
+
+/** A link whose pin distance varies less than this over the stations is exact, mm. */
+const EXACT_LINK_MM = 1e-8;
 
 /** Pose of B relative to A: B's point p lies at R·p + origin in A's frame. */
 export function relativePose(a: BodyPose, b: BodyPose): RelativePose {

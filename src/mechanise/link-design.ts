@@ -1,7 +1,13 @@
 import type { Point } from '../geometry/index.js';
 
 /** How a binary link's pins were found (Burmester theory for finitely separated positions). */
-export type LinkSynthesis = 'any-centre' | 'circumcentre' | 'centre-point-curve' | 'burmester-point' | 'least-squares';
+export type LinkSynthesis =
+  | 'any-centre'
+  | 'circumcentre'
+  | 'centre-point-curve'
+  | 'burmester-point'
+  | 'circle-fit'
+  | 'least-squares';
 
 /**
  * A binary link (RR dyad) between body A (the die body or a plate) and plate B: one pin fixed in each, a constant

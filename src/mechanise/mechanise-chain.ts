@@ -61,7 +61,7 @@ export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest
     pinRegions: new Map(topology.bodies.map((b) => [b.id, platePinRegion(b, fit.shape, clearanceMm)])),
     clearanceMm,
     residualLimitMm: options.linkResidualLimitMm ?? options.fitToleranceMm / 4,
-    arrivalToleranceMm: options.arrivalToleranceMm ?? (distinct <= 5 ? 1e-6 : options.fitToleranceMm / 2),
+    arrivalToleranceMm: options.arrivalToleranceMm ?? (distinct <= 3 ? 1e-6 : options.fitToleranceMm / 2),
     legs,
   };
   const d = topology.degreesOfFreedom;

@@ -53,8 +53,8 @@ export interface MechaniseOptions {
    */
   readonly linkResidualLimitMm: number | null;
   /**
-   * A traced station may differ from the fitted one by this much, mm (circuit-defect test). With exact links (≤ 5
-   * distinct stations) only round-off remains. @default 1e-6 with exact links, else fitToleranceMm / 2
+   * A traced station may differ from the fitted one by this much, mm (circuit-defect test). With exact links only
+   * (≤ 3 distinct stations) only round-off remains. @default 1e-6 for ≤ 3 distinct stations, else fitToleranceMm / 2
    */
   readonly arrivalToleranceMm: number | null;
   /**

@@ -198,12 +198,17 @@ export function reducedMode(
   };
 }
 
-/** Candidates in the order a part tries them: best transmission seen from the part's driver first. */
+/** Candidates in the order a part tries them: exact links (residual ≤ 1e-8 mm) first, then best transmission seen from the part's driver. */
 function rankFor(candidates: readonly LinkCandidate[], side: 'up' | 'down', crank: boolean): LinkCandidate[] {
   if (crank) return candidates.filter((c) => c.link.bodyA === 'die_body');
   return candidates
     .filter((c) => c[side] !== null)
-    .sort((p, q) => q[side]! - p[side]! || p.link.lengthMm - q.link.lengthMm);
+    .sort(
+      (p, q) =>
+        Number(p.link.residualMm > 1e-8) - Number(q.link.residualMm > 1e-8) ||
+        q[side]! - p[side]! ||
+        p.link.lengthMm - q.link.lengthMm,
+    );
 }
 
 /**

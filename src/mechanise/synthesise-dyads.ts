@@ -4,6 +4,7 @@ import {
   centrePointCurve4,
   centrePointFor3,
   type Dyad,
+  kasaCircleFit,
   measureDyad,
   multistartDyads,
   placePoint,
@@ -47,8 +48,9 @@ export interface DyadSynthesisSettings {
  * - m = 3: the circumcentre of each circle point's three positions (`centrePointFor3`);
  * - m = 4: samples of the centre-point curve whose circle point lies in B's pin region (`centrePointCurve4`);
  * - m = 5: the Burmester point pairs (`burmesterPoints5`);
- * - m > 5: least-squares dyads started from the circle-point grid (`multistartDyads`), kept when their residual is
- *   within `residualLimitMm`.
+ * - m ≥ 4: also a circle fit (Kåsa) through each grid circle point's positions, and least-squares dyads started from the circle-point grid (`multistartDyads`), kept when their residual
+ *   is within `residualLimitMm` (for m > 5 the only ones): fitted positions carry the fit's error, so a link a little
+ *   off every exact solution may serve better than any of them.
  */
 export function synthesiseDyads(poses: readonly RelativePose[], settings: DyadSynthesisSettings): DyadSynthesis {
   const m = poses.length;
@@ -105,7 +107,24 @@ export function synthesiseDyads(poses: readonly RelativePose[], settings: DyadSy
     for (const pair of b.pairs) {
       if (pinRegion.contains(pair.circlePointLocal)) dyads.push({ ...dyadOf(pair), synthesis: 'burmester-point' });
     }
-  } else {
+  }
+  if (m >= 4) {
+    // circle fits through each grid point's positions (Kåsa, then measured as a dyad): links that are rigid to within
+    // the residual limit rather than exactly, for any number of positions; robust where the exact solutions are
+    // sensitive to small errors in the positions (short strokes)
+    for (const c of circlePoints) {
+      const circle = kasaCircleFit(poses.map((pose) => placePoint(pose, c)));
+      if (circle.status !== 'ok') {
+        collinear++;
+        continue;
+      }
+      const dyad = measureDyad(poses, circle.centre, c);
+      if (dyad.residualMm <= settings.residualLimitMm) dyads.push({ ...dyad, synthesis: 'circle-fit' });
+      else residualTooLarge++;
+    }
+    // the positions come from a fitted chain and carry its error: exact dyads for them are not the only good links,
+    // and for more than five positions there are none. Least-squares dyads from the circle-point grid join the pool
+    // whenever their residual is within the limit; the mechanism built from them is checked station by station.
     let minX = Number.POSITIVE_INFINITY;
     let minY = Number.POSITIVE_INFINITY;
     let maxX = Number.NEGATIVE_INFINITY;
@@ -126,13 +145,21 @@ export function synthesiseDyads(poses: readonly RelativePose[], settings: DyadSy
     for (const fit of fits.candidates) {
       const dyad = measureDyad(poses, fit.centre, fit.circlePointLocal);
       if (dyad.residualMm <= settings.residualLimitMm && pinRegion.contains(fit.circlePointLocal)) {
-        dyads.push({ ...dyad, synthesis: 'least-squares' });
-      } else residualTooLarge++;
+        // an exact dyad for four or five positions lies on the centre-point curve or is a Burmester pair, however
+        // it was found
+        const exact = dyad.residualMm <= EXACT_DYAD_MM;
+        const synthesis =
+          exact && m === 4 ? 'centre-point-curve' : exact && m === 5 ? 'burmester-point' : 'least-squares';
+        dyads.push({ ...dyad, synthesis });
+      } else if (m > 5) residualTooLarge++;
     }
-    residualTooLarge += fits.failed;
+    if (m > 5) residualTooLarge += fits.failed;
   }
   return { dyads, collinear, residualTooLarge };
 }
+
+/** A dyad whose pin distance varies less than this over the positions is exact, mm. */
+const EXACT_DYAD_MM = 1e-8;
 
 function dyadOf(d: Dyad): Dyad {
   return { centre: d.centre, circlePointLocal: d.circlePointLocal, radiusMm: d.radiusMm, residualMm: d.residualMm };
