@@ -11,6 +11,7 @@ export interface Schedule {
   readonly process: ProcessSettings;
   readonly limits: Limits;
   readonly plates: PlateSettings;
+  readonly links: LinkSettings;
   readonly actuators: ActuatorSettings;
   /** Time step of the setpoint table, s. */
   readonly timeStepS: number;
@@ -81,6 +82,14 @@ export interface PlateSettings {
   readonly thicknessMm: number;
   /** Plate body depth away from the melt, mm. */
   readonly depthMm: number;
+}
+
+/** Binary links the mechanisation may add. */
+export interface LinkSettings {
+  /** Shortest link, pin centre to pin centre, mm. */
+  readonly minLengthMm: number;
+  /** Longest link, mm. */
+  readonly maxLengthMm: number;
 }
 
 export interface ActuatorSettings {

@@ -124,6 +124,13 @@ export const PlatesWire = z.object({
   depth_mm: positive('depth_mm').optional().describe('plate body depth away from the melt, mm; default 25.0'),
 });
 
+export const LinksWire = z.object({
+  min_length_mm: positive('min_length_mm')
+    .optional()
+    .describe('shortest binary link, pin centre to pin centre, mm; default pivot_hole_diameter_mm + ligament_mm'),
+  max_length_mm: positive('max_length_mm').optional().describe('longest binary link, mm; default 200'),
+});
+
 export const ActuatorsWire = z.object({
   count: z
     .number({ error: 'count must be a whole number' })
@@ -159,6 +166,7 @@ export const ScheduleWire = z
       process: ProcessWire.optional(),
       limits: LimitsWire.optional(),
       plates: PlatesWire.optional(),
+      links: LinksWire.optional(),
       actuators: ActuatorsWire.optional(),
       time_step_s: positive('time_step_s')
         .max(10, { error: 'time_step_s above 10 s is too coarse for a setpoint table' })

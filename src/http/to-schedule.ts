@@ -30,6 +30,7 @@ export const WIRE_DEFAULTS = Object.freeze({
   thicknessMm: 6.0,
   depthMm: 25.0,
   actuatorCount: 1,
+  linkMaxLengthMm: 200, // common practice, no source
   maxSpeedDegPerS: 60,
   maxAccelDegPerS2: 300,
   timeStepS: 0.05,
@@ -117,6 +118,17 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       message: `plate_count (${plateCount}) lies outside min_plates–max_plates (${minPlates}–${maxPlates})`,
     });
   }
+  const linkMin =
+    wire.links?.min_length_mm ??
+    (wire.plates?.pivot_hole_diameter_mm ?? WIRE_DEFAULTS.pivotHoleDiameterMm) +
+      (wire.plates?.ligament_mm ?? WIRE_DEFAULTS.ligamentMm);
+  const linkMax = wire.links?.max_length_mm ?? WIRE_DEFAULTS.linkMaxLengthMm;
+  if (!(linkMin < linkMax)) {
+    problems.push({
+      path: wire.links?.max_length_mm !== undefined ? 'links.max_length_mm' : 'links.min_length_mm',
+      message: `the shortest link (${linkMin} mm) must be shorter than the longest (${linkMax} mm)`,
+    });
+  }
   if (problems.length > 0) return { ok: false, problems };
 
   const span = wire.moving_span;
@@ -150,6 +162,8 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       thicknessMm: wire.plates?.thickness_mm ?? WIRE_DEFAULTS.thicknessMm,
       depthMm: wire.plates?.depth_mm ?? WIRE_DEFAULTS.depthMm,
     },
+    // a link, like the shortest plate, needs two pin holes and the ligament between them
+    links: { minLengthMm: linkMin, maxLengthMm: linkMax },
     actuators: {
       count: wire.actuators?.count ?? WIRE_DEFAULTS.actuatorCount,
       maxSpeedRadPerS: toRadians(wire.actuators?.max_speed_deg_per_s ?? WIRE_DEFAULTS.maxSpeedDegPerS),

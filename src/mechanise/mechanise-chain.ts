@@ -33,7 +33,11 @@ import { type PlateSearch, reducedMode } from './reduced-mode.js';
  * works when a search upward finds one. Pure and deterministic.
  */
 export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest): MechanisationResult {
-  const options = resolveMechaniseOptions(request);
+  // a link needs two pin holes and the ligament between them, like the shortest plate: hole diameter + ligament
+  const options = resolveMechaniseOptions({
+    ...request,
+    linkLengthMinMm: request.linkLengthMinMm ?? fit.shape.holeRadiusMm + fit.shape.edgeOffsetMm,
+  });
   const topology = chainTopology(fit);
   const stations = assembleStations(topology, options.mergeToleranceMm);
   const distinct = stations.representatives.length;

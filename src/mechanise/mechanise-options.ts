@@ -15,7 +15,11 @@ export interface MechaniseOptions {
    * @default false
    */
   readonly periodic: boolean;
-  /** Shortest binary link, pin centre to pin centre, mm. @default 10 (common practice, no source) */
+  /**
+   * Shortest binary link, pin centre to pin centre, mm: a link, like the shortest plate, needs two pin holes and the
+   * ligament between them. @default pivot hole diameter + ligament of the fitted plates (`mechaniseChain`); 10 where
+   * no plates are known (common practice, no source)
+   */
   readonly linkLengthMinMm: number;
   /** Longest binary link, mm. @default 200 (common practice, no source) */
   readonly linkLengthMaxMm: number;

@@ -87,6 +87,8 @@ export function planSchedule(schedule: Schedule): Plan {
     actuatorCount: schedule.actuators.count,
     periodic: schedule.repeatLengthM !== null,
     fitToleranceMm: schedule.limits.fitToleranceMm,
+    linkLengthMinMm: schedule.links.minLengthMm,
+    linkLengthMaxMm: schedule.links.maxLengthMm,
   };
   const fitWith = (options: ChainFitOptions) =>
     fitChain(

@@ -49,22 +49,35 @@ describe('mechaniseChain on the demo edging strip (DOMAIN.md §6)', () => {
     );
   });
 
-  it('says per plate why one actuator does not drive the fitted chain, and the smallest count that does', () => {
-    expect(result.status).toBe('no-mechanism');
-    const codes = result.findings.map((f) => f.code);
-    expect(codes[0]).toBe('NO_MECHANISM');
-    expect(codes).toContain('PLATE_HAS_NO_LINK');
-    for (const f of result.findings.filter((x) => x.code === 'PLATE_HAS_NO_LINK')) {
-      expect(f.message).toMatch(/^plate_\d+/);
-      expect(f.severity).toBe('warning');
+  it('one actuator drives the fitted chain, with one binary link per remaining degree of freedom', () => {
+    // Grübler–Kutzbach (DOMAIN.md §3): each binary link removes one degree of freedom, the actuator the last
+    expect(result.status).toBe('mechanised');
+    expect(result.mechanism!.actuators).toHaveLength(1);
+    expect(result.links).toHaveLength(result.chainDegreesOfFreedom - 1);
+    expect(result.mobility).toMatchObject({ grubler: 1, numerical: 1 });
+    // every link is at least two pin holes and a ligament long (4 + 3 mm), the shortest the plates allow
+    for (const link of result.links) expect(link.lengthMm).toBeGreaterThanOrEqual(7);
+    for (const s of result.stations) {
+      expect(s.residualMm).toBeLessThan(1e-6);
+      expect(s.deviationMm).toBeLessThanOrEqual(schedule.limits.fitToleranceMm + 1e-3);
     }
-    expect(result.smallestActuatorCount).toBeGreaterThan(1);
-    expect(codes).toContain('SMALLEST_ACTUATOR_COUNT');
   });
 
-  it('the smallest actuator count reported does drive the demo through every station', () => {
-    const count = result.smallestActuatorCount!;
-    const r = mechaniseChain(fit, { ...request, actuatorCount: count });
+  it('with links no shorter than 10 mm one actuator does not do, and the finding names the short links', () => {
+    const strict = mechaniseChain(fit, { ...request, actuatorCount: 1, linkLengthMinMm: 10 });
+    expect(strict.status).toBe('no-mechanism');
+    const codes = strict.findings.map((f) => f.code);
+    expect(codes[0]).toBe('NO_MECHANISM');
+    expect(
+      strict.findings.filter((f) => f.code === 'PLATE_HAS_NO_LINK').some((f) => /shorter than 10 mm/.test(f.message)),
+    ).toBe(true);
+    expect(strict.smallestActuatorCount).toBeGreaterThan(1);
+  });
+
+  it('the smallest actuator count reported with 10 mm links does drive the demo through every station', () => {
+    const strict = { ...request, linkLengthMinMm: 10 };
+    const count = mechaniseChain(fit, { ...strict, actuatorCount: 1 }).smallestActuatorCount!;
+    const r = mechaniseChain(fit, { ...strict, actuatorCount: count });
     expect(r.status).toBe('mechanised');
     expect(r.mobility).toMatchObject({ grubler: count, numerical: count });
     expect(r.stations).toHaveLength(4);

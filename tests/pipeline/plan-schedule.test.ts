@@ -64,3 +64,17 @@ describe('toSchedule: plate-count limits', () => {
     if (!m.ok) expect(m.problems[0]).toMatchObject({ path: 'limits.plate_count' });
   });
 });
+
+describe('toSchedule: link limits', () => {
+  it('defaults the shortest link to two pin holes and a ligament: 4 + 3 = 7 mm', () => {
+    // the same rule as the shortest plate (DOMAIN.md §2: hole and ligament round every pin)
+    const m = toSchedule(knownLinkageSchedule() as never);
+    expect(m.ok && m.schedule.links).toEqual({ minLengthMm: 7, maxLengthMm: 200 });
+  });
+
+  it('refuses a shortest link at or above the longest, with the field path', () => {
+    const m = toSchedule(knownLinkageSchedule({ links: { min_length_mm: 250 } }) as never);
+    expect(m.ok).toBe(false);
+    if (!m.ok) expect(m.problems[0]).toMatchObject({ path: 'links.min_length_mm' });
+  });
+});
