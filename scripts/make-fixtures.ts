@@ -4,6 +4,7 @@
  * Every number here is invented for demonstration.
  */
 import { writeFileSync } from 'node:fs';
+import { channelOrifice, closeChain } from '../tests/support/known-chain.js';
 
 type P = [number, number];
 
@@ -42,8 +43,13 @@ const leftHump = arcTop(0, 8, 20, 12, 26);
 const rightHump = arcTop(20, 12, 40, 8, 26);
 const doubleCrown = (x: number) => (x <= 20 ? leftHump(x) : rightHump(x));
 
-const demo = {
-  name: 'edging-strip-demo',
+/**
+ * The crowned edging strip: flat → single crown → double crown → flat. With links at least two pin holes and a
+ * ligament long, no chain the planner tries is driven by one actuator, so its plan comes back `incomplete` with the
+ * fewest actuators found; kept to show that answer.
+ */
+const crowns = {
+  name: 'crowned-edging-strip',
   material: 'PVC-U',
   process: { line_speed_m_per_min: 2.0, die_temperature_c: 190 },
   limits: {
@@ -160,8 +166,69 @@ const fixedPartDisagrees = {
   ],
 };
 
+/**
+ * The demo: an edging strip 40 mm wide on a flat base whose top edge carries a ridge and a groove that roll to the
+ * right and back every 1.5 m. Its stations are made, for this demo, by a die of four plates (12, 14, 16 and 16 mm
+ * between pivots, pinned to the die body at (−6, 16) and (46, 16)) whose second plate is held by one link from the die
+ * body, all driven by one actuator on the first plate's ground pivot at 0.25, 0.40 and 0.55 rad: the melt edge is the
+ * plates' pivot line swollen by e = 5 mm (DOMAIN.md §2). The chain closes by the law of cosines.
+ */
+function rollingRidgeStations(): { outer: P[]; holes: P[][] }[] {
+  const start: P = [-6, 16];
+  const end: P = [46, 16];
+  const lengths = [12, 14, 16, 16];
+  const plate1End = (t: number): P => [start[0] + lengths[0]! * Math.cos(t), start[1] + lengths[0]! * Math.sin(t)];
+  // the link: die-body pin at (−30, 42), plate pin at (10, 8) in plate 2's frame, drawn with plate 1 at 0.35 rad and
+  // plate 2 level
+  const ground: P = [-30, 42];
+  const onPlate: P = [10, 8];
+  const drawn = plate1End(0.35);
+  const linkLength = Math.hypot(drawn[0] + onPlate[0] - ground[0], drawn[1] + onPlate[1] - ground[1]);
+  const pinRadius = Math.hypot(onPlate[0], onPlate[1]);
+  return [0.25, 0.4, 0.55, 0.4].map((t1) => {
+    const j1 = plate1End(t1);
+    // plate 2's pin: circle (j1, |onPlate|) meets circle (ground, link length), on the branch that keeps plate 2 level
+    const dx = ground[0] - j1[0];
+    const dy = ground[1] - j1[1];
+    const d = Math.hypot(dx, dy);
+    const along = (pinRadius ** 2 - linkLength ** 2 + d * d) / (2 * d);
+    const h = Math.sqrt(pinRadius ** 2 - along ** 2);
+    const pins: P[] = [-1, 1].map((side) => [
+      j1[0] + (along * dx) / d - (side * h * dy) / d,
+      j1[1] + (along * dy) / d + (side * h * dx) / d,
+    ]);
+    const tilt = (c: P) => Math.abs(Math.atan2(c[1] - j1[1], c[0] - j1[0]) - Math.atan2(onPlate[1], onPlate[0]));
+    const pin = tilt(pins[0]!) < tilt(pins[1]!) ? pins[0]! : pins[1]!;
+    const t2 = Math.atan2(pin[1] - j1[1], pin[0] - j1[0]) - Math.atan2(onPlate[1], onPlate[0]);
+    return roundRegion(channelOrifice(closeChain(lengths, start, end, [t1, t2], false), 5, 40, 0.5));
+  });
+}
+
+function roundRegion(r: { outer: P[]; holes: P[][] }): { outer: P[]; holes: P[][] } {
+  return { outer: r.outer.map(([x, y]) => [round(x), round(y)]), holes: [] };
+}
+
+const demo = {
+  name: 'edging-strip-demo',
+  material: 'PVC-U',
+  process: { line_speed_m_per_min: 2.0, die_temperature_c: 190 },
+  limits: {
+    draw_down: { min: 1.0, max: 1.3 },
+    min_wall_mm: 1.5,
+    max_wall_ratio: 2.5,
+    fit_tolerance_mm: 0.2,
+    max_plates: 24,
+  },
+  plates: { pivot_hole_diameter_mm: 4.0, ligament_mm: 3.0, thickness_mm: 6.0, depth_mm: 25.0 },
+  actuators: { count: 1, max_speed_deg_per_s: 60, max_accel_deg_per_s2: 300 },
+  time_step_s: 0.05,
+  repeat_length_m: 1.5,
+  stations: rollingRidgeStations().map((orifice, i) => ({ position_m: 0.375 * i, orifice })),
+};
+
 const files: Record<string, unknown> = {
   'demo-edging-strip.json': demo,
+  'crowned-edging-strip.json': crowns,
   'self-intersecting.json': selfIntersecting,
   'thin-wall.json': thinWall,
   'hollow-profile.json': hollowProfile,

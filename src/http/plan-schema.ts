@@ -119,6 +119,22 @@ export const MechanisationWire = z.object({
         .describe('plate–plate joints where two plates drive each other (the middle joint of a dyad), over the motion'),
     })
     .describe('binary links (min, max) and plate–plate joints, over the whole motion, degrees'),
+  clearances: z
+    .array(
+      z.object({
+        kind: z
+          .enum(['ground-pivot', 'pin-through-layer', 'same-layer', 'link-in-melt'])
+          .describe(
+            'ground-pivot: a die-body pin against a plate; pin-through-layer: a link pin against a part on a layer it passes; same-layer: two plates on one layer; link-in-melt: how far inside the plates a link over the opening stays',
+          ),
+        parts: z.tuple([z.string(), z.string()]),
+        clearance_mm: z.number().describe('smallest gap over the whole motion; negative where the parts overlap'),
+        station: z.number().int().nullable().describe('where it occurs: at this station, or on the leg after it'),
+        leg_to_station: z.number().int().nullable().describe('the station the leg runs to; null at a station'),
+        leg_fraction: z.number().describe('0–1 along the leg'),
+      }),
+    )
+    .describe('the tightest room between parts over the whole motion, smallest first (at most 12)'),
   stations: z.array(
     z.object({
       residual_mm: z.number().describe('driven pivots vs fitted pivots'),

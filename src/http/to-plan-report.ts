@@ -121,6 +121,18 @@ export function toPlanReport(record: PlanRecord): PlanReport {
               worst: sig(j.worstDeg),
             })),
           },
+          clearances: plan.mechanisation.clearances.slice(0, 12).map((c) => {
+            const reps = plan.mechanisation!.stations.length > 0 ? plan.mechanisation! : null;
+            const station = (p: number) => reps?.stations.find((s) => s.position === p)?.station ?? p;
+            return {
+              kind: c.kind,
+              parts: [c.parts[0], c.parts[1]] as [string, string],
+              clearance_mm: mm(c.clearanceMm),
+              station: c.at.leg ? station(c.at.leg[0]) : c.at.position === null ? null : station(c.at.position),
+              leg_to_station: c.at.leg ? station(c.at.leg[1]) : null,
+              leg_fraction: sig(c.at.fraction),
+            };
+          }),
           stations: plan.mechanisation.stations.map((s) => ({
             residual_mm: sig(s.residualMm),
             deviation_mm: mm(s.deviationMm),

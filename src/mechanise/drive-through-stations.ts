@@ -18,8 +18,15 @@ export interface MotionDefect {
    * `ORDER_DEFECT`: driving toward the next station stops at a dead point: the actuator would have to reverse inside
    * the leg. `CIRCUIT_DEFECT`: the leg completes but ends in another configuration than the station's.
    * `TRANSMISSION_ANGLE`: a binary link's transmission angle leaves the limit band somewhere along the motion.
+   * `COLLISION`: two parts overlap somewhere along the motion (`makeClearanceInspector`).
    */
-  readonly code: 'SINGULAR_STATION' | 'BRANCH_DEFECT' | 'ORDER_DEFECT' | 'CIRCUIT_DEFECT' | 'TRANSMISSION_ANGLE';
+  readonly code:
+    | 'SINGULAR_STATION'
+    | 'BRANCH_DEFECT'
+    | 'ORDER_DEFECT'
+    | 'CIRCUIT_DEFECT'
+    | 'TRANSMISSION_ANGLE'
+    | 'COLLISION';
   /** The leg, as distinct positions [from, to], when the defect belongs to one. */
   readonly leg?: readonly [number, number];
   /** The distinct position concerned. */
@@ -93,6 +100,8 @@ export interface DriveSettings {
   readonly arrivalToleranceMm: number;
   /** Transmission angles outside this band are defects, degrees. */
   readonly transmissionLimitDeg: readonly [number, number];
+  /** Called with every configuration checked: each station solved and every accepted step of every leg. */
+  readonly inspect?: (pose: Pose, at: MotionPlace) => void;
 }
 
 /**
@@ -129,6 +138,7 @@ export function driveThroughStations(
   // plate–plate joints that close a dyad: extremes and where the angle is worst (farthest from 90°)
   const jointExtremes = new Map<string, { min: number; max: number; worst: number; at: MotionPlace }>();
   const measure = (pose: Pose, at: MotionPlace) => {
+    settings.inspect?.(pose, at);
     for (const t of transmissionAngles(pose)) note(t.linkId, t.mu);
     for (const t of dyadTransmissionAngles(pose)) {
       const e = jointExtremes.get(t.jointId);

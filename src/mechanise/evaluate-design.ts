@@ -1,6 +1,12 @@
-import type { Mechanism, Pose } from '../kinematics/index.js';
+import { bodyPose, type Mechanism, type Pose } from '../kinematics/index.js';
 import { buildMechanism, linkJointIds, posesAt } from './build-mechanism.js';
-import { driveThroughStations, type MotionCheck } from './drive-through-stations.js';
+import { driveThroughStations, type MotionCheck, type MotionPlace } from './drive-through-stations.js';
+import {
+  type ClearanceRecord,
+  clearancePartsOf,
+  collisionDefects,
+  makeClearanceInspector,
+} from './motion-clearance.js';
 import type { LinkDesign } from './link-design.js';
 import type { MechaniseContext } from './mechanise-context.js';
 
@@ -12,6 +18,8 @@ export interface EvaluatedDesign {
   /** Expected configuration at each distinct position, actuator values included. */
   readonly expected: readonly Pose[];
   readonly motion: MotionCheck;
+  /** Smallest room per pair of parts over the whole motion (complete mechanisms only), smallest first. */
+  readonly clearances: readonly ClearanceRecord[];
 }
 
 /** Where an actuator acts: a chain joint by id, or the ground pivot of one of the design's links (a crank). */
@@ -39,10 +47,19 @@ export function evaluateDesign(
   const distinctPoses = stations.representatives.map((r) => stations.poses[r]!);
   const mechanism = buildMechanism(topology, named, actuatorJoints, distinctPoses[0]!, chainBodies);
   const expected = posesAt(mechanism, topology, distinctPoses);
-  const motion = driveThroughStations(expected, context.legs, {
+  // room between the parts is checked on complete mechanisms (partial ones lack the parts that collide)
+  const clearance = chainBodies ? null : makeClearanceInspector(clearancePartsOf(context, mechanism, named));
+  const driven = driveThroughStations(expected, context.legs, {
     trace: options.trace,
     arrivalToleranceMm: context.arrivalToleranceMm,
     transmissionLimitDeg: options.transmissionLimitDeg,
+    ...(clearance
+      ? { inspect: (pose: Pose, at: MotionPlace) => clearance.inspect((id) => bodyPose(pose, id), at) }
+      : {}),
   });
-  return { links: named, actuatorJoints, mechanism, expected, motion };
+  const clearances = clearance?.records() ?? [];
+  const clashes = collisionDefects(clearances);
+  const motion: MotionCheck =
+    clashes.length === 0 ? driven : { ...driven, ok: false, defects: [...driven.defects, ...clashes] };
+  return { links: named, actuatorJoints, mechanism, expected, motion, clearances };
 }

@@ -11,10 +11,22 @@ export {
   type DriveSettings,
   driveThroughStations,
   type LegTrace,
+  type JointTransmission,
   type LinkTransmission,
   type MotionCheck,
   type MotionDefect,
+  type MotionPlace,
 } from './drive-through-stations.js';
+export {
+  type ClearanceInspector,
+  type ClearanceKind,
+  type ClearanceParts,
+  type ClearanceRecord,
+  clearancePartsOf,
+  collisionDefects,
+  describeClearance,
+  makeClearanceInspector,
+} from './motion-clearance.js';
 export { type GroundPivotRegion, type GroundPivotRejection, groundPivotRegion } from './ground-pivot-region.js';
 export { type PlatePinRegion, platePinRegion } from './plate-pin-region.js';
 export type { PlateSearch } from './reduced-mode.js';

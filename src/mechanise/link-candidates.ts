@@ -1,6 +1,6 @@
-import type { Point } from '../geometry/index.js';
+import { closestPointOnPolyline, type Point, pointInRing } from '../geometry/index.js';
 import type { BodyPose, Joint } from '../kinematics/index.js';
-import { safeAcos, toRadians } from '../numeric/index.js';
+import { DEFAULT_TOLERANCES, safeAcos, toRadians } from '../numeric/index.js';
 import { circlePointForCentre, displacementPoles, invertPoses, type RelativePose } from '../synthesis/index.js';
 import type { LinkDesign } from './link-design.js';
 import { bodyPoseAt, type MechaniseContext, placeOn } from './mechanise-context.js';
@@ -9,7 +9,7 @@ import { type SynthesisedDyad, synthesiseDyads } from './synthesise-dyads.js';
 
 /**
  * Why a candidate link was turned down. Screening: `COLLINEAR`, `RESIDUAL`, `GROUND_OUTSIDE_FRAME`,
- * `GROUND_IN_OPENING`, `GROUND_IN_MELT`, `PIN_OUTSIDE_PLATE`, `TOO_SHORT`, `TOO_LONG`, `CROSSES_MELT`,
+ * `GROUND_IN_OPENING`, `GROUND_IN_MELT`, `GROUND_UNDER_PLATE`, `PIN_OUTSIDE_PLATE`, `TOO_SHORT`, `TOO_LONG`, `CROSSES_MELT`,
  * `TRANSMISSION_AT_STATIONS`; driving the partial mechanism: `BRANCH_DEFECT`, `ORDER_DEFECT`, `CIRCUIT_DEFECT`,
  * `SINGULAR_STATION`, `TRANSMISSION_IN_MOTION`.
  */
@@ -163,7 +163,7 @@ export function linkCandidates(context: MechaniseContext, body: string): PlateCa
           continue;
         }
       } else {
-        const where = context.groundRegion.check(d.centre);
+        const where = context.groundRegion.check(d.centre) ?? underPlate(context, d.centre);
         if (where) {
           reject(where);
           continue;
@@ -197,6 +197,22 @@ export function linkCandidates(context: MechaniseContext, body: string): PlateCa
       p.link.lengthMm - q.link.lengthMm,
   );
   return { body, candidates, tried, triedFromGround, rejections, groundRejections, pole };
+}
+
+/**
+ * `GROUND_UNDER_PLATE` when a ground pivot lies within a pin radius of a plate at some station: the plate would sweep
+ * over the pin that reaches from the die body to the link (checked again along the whole motion by the clearance
+ * inspector).
+ */
+function underPlate(context: MechaniseContext, p: Point): 'GROUND_UNDER_PLATE' | null {
+  const r = context.shape.holeRadiusMm;
+  for (const plates of context.platesAt) {
+    for (const ring of plates) {
+      if (pointInRing(p, ring, DEFAULT_TOLERANCES) !== 'outside') return 'GROUND_UNDER_PLATE';
+      if (closestPointOnPolyline(p, ring, true).distance < r) return 'GROUND_UNDER_PLATE';
+    }
+  }
+  return null;
 }
 
 /** 0 for an exact link (residual within round-off), 1 for one rigid only to within the residual limit. */

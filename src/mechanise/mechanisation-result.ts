@@ -4,6 +4,7 @@ import type { Mechanism } from '../kinematics/index.js';
 import type { JointTransmission, LegTrace, LinkTransmission, MotionDefect } from './drive-through-stations.js';
 import type { LinkDesign } from './link-design.js';
 import type { MechaniseOptions } from './mechanise-options.js';
+import type { ClearanceRecord } from './motion-clearance.js';
 import type { PlateSearch } from './reduced-mode.js';
 
 /**
@@ -91,6 +92,11 @@ export interface MechanisationResult {
     /** Plate–plate joints closing a dyad (the plates drive each other there), over the whole motion. */
     readonly joints: readonly JointTransmission[];
   };
+  /**
+   * Smallest room per pair of parts over the whole motion (die-body pins against plate sweeps, link pins against the
+   * layers they pass, plates sharing a layer, links over the opening), smallest first; empty without a mechanism.
+   */
+  readonly clearances: readonly ClearanceRecord[];
   /** Largest condition estimate of the driven Jacobian along the motion (dimensionless). */
   readonly maxCondition: number | null;
   /** What the link search learnt about each plate that could take a link (reduced mode). */

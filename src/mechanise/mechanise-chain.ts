@@ -53,7 +53,15 @@ export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest
     if (from !== to) legs.push([from, to]);
   }
   const groundRegion = groundPivotRegion(fit.opening, orifices, options.frameMarginMm, clearanceMm);
+  const allPivots = stations.poses.map((p) => pivotPoints(topology, p));
+  const fans = pivotFans(allPivots);
+  const coarse = { ...fit.shape, arcToleranceMm: Math.max(fit.shape.arcToleranceMm, 0.2) };
+  const platesAt = stations.representatives.map((r) => {
+    const pv = allPivots[r]!;
+    return pv.slice(1).map((b, k) => plateOutline(pv[k]!, b, coarse, null, { atA: fans[k]!, atB: fans[k + 1]! }).outer);
+  });
   const context: MechaniseContext = {
+    platesAt,
     options,
     topology,
     stations,
@@ -203,6 +211,7 @@ function mechanised(
     legs: design.motion.legs,
     defects: design.motion.defects,
     transmission,
+    clearances: design.clearances,
     maxCondition: design.motion.maxCondition,
     plates,
     smallestActuatorCount: base.requestedActuators === 1 ? 1 : null,
@@ -233,6 +242,7 @@ function noMechanism(
     legs: [],
     defects,
     transmission: { links: [], minDeg: null, maxDeg: null, joints: [] },
+    clearances: [],
     maxCondition: null,
     plates,
     smallestActuatorCount: smallest,

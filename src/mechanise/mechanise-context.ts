@@ -27,6 +27,11 @@ export interface MechaniseContext {
   readonly residualLimitMm: number;
   /** Circuit-defect tolerance, mm (resolved). */
   readonly arrivalToleranceMm: number;
+  /**
+   * Outer rings of the plates at each distinct position, die-body frame, drawn coarsely: a ground pivot inside one
+   * would be swept by that plate.
+   */
+  readonly platesAt: readonly (readonly (readonly Point[])[])[];
   /** Legs driven, as pairs of distinct positions in schedule order (zero-length legs left out). */
   readonly legs: readonly (readonly [from: number, to: number])[];
 }

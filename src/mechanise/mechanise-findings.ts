@@ -1,10 +1,11 @@
 import type { Finding } from '../domain/index.js';
 import { findOrderDefect } from '../kinematics/index.js';
-import type { MotionDefect } from './drive-through-stations.js';
+import type { MotionDefect, MotionPlace } from './drive-through-stations.js';
 import type { EvaluatedDesign } from './evaluate-design.js';
 import type { MechanisationResult, MechanismReport, StationOutcome } from './mechanisation-result.js';
 import type { MechaniseContext } from './mechanise-context.js';
 import type { PlateSearch } from './reduced-mode.js';
+import { describeClearance } from './motion-clearance.js';
 
 /** What each rejection code means to a process engineer, after a count of links: "12 are shorter than …". */
 function reasons(options: MechaniseContext['options']): Readonly<Record<string, string>> {
@@ -15,6 +16,7 @@ function reasons(options: MechaniseContext['options']): Readonly<Record<string, 
     GROUND_OUTSIDE_FRAME: 'have their ground pivot outside the die-body frame',
     GROUND_IN_OPENING: 'have their ground pivot in the die opening (or within a pin clearance of it)',
     GROUND_IN_MELT: 'have their ground pivot in the melt channel',
+    GROUND_UNDER_PLATE: 'have their ground pivot where a plate sweeps over it',
     PIN_OUTSIDE_PLATE: "need a pin outside the other plate's body",
     TOO_SHORT: `are shorter than ${options.linkLengthMinMm} mm`,
     TOO_LONG: `are longer than ${options.linkLengthMaxMm} mm`,
@@ -25,6 +27,7 @@ function reasons(options: MechaniseContext['options']): Readonly<Record<string, 
     CIRCUIT_DEFECT: 'reach a station in another assembly (circuit defect)',
     SINGULAR_STATION: 'put a station at a dead point',
     TRANSMISSION_ANGLE: `have a transmission angle outside ${lo}°–${hi}° during the motion`,
+    COLLISION: 'collide with a plate, a pin or the melt somewhere along the motion',
   };
 }
 
@@ -93,22 +96,42 @@ export function successFindings(
     });
   }
   const { stations } = context;
+  const where = (at: MotionPlace) =>
+    at.leg !== null
+      ? `between stations ${stations.representatives[at.leg[0]]} and ${stations.representatives[at.leg[1]]}, ${Math.round(at.fraction * 100)} % of the way`
+      : `at station ${stations.representatives[at.position ?? 0]}`;
+  const stationOf = (at: MotionPlace) => stations.representatives[at.leg ? at.leg[0] : (at.position ?? 0)]!;
+  const room = design.clearances.filter((c) => c.kind !== 'same-layer');
+  if (room.length > 0) {
+    const c = room[0]!;
+    findings.push({
+      code: 'CLEARANCE',
+      severity: 'info',
+      station: stationOf(c.at),
+      value: c.clearanceMm,
+      message: `Over the whole motion the tightest room is ${fmt(c.clearanceMm)} mm, between ${c.parts[0]} and ${c.parts[1]} (${describeClearance(c.kind)}), ${where(c.at)}. Die-body pins clear the plates' sweep, link pins clear the layers they pass, and links stay over plates where they cross the opening.`,
+    });
+  }
+  for (const c of design.clearances.filter((x) => x.kind === 'same-layer' && x.clearanceMm < 0)) {
+    findings.push({
+      code: 'PLATES_OVERLAP_ON_LAYER',
+      severity: 'warning',
+      station: stationOf(c.at),
+      value: -c.clearanceMm,
+      message: `${c.parts[0]} and ${c.parts[1]} share a layer and overlap by up to ${fmt(-c.clearanceMm)} mm ${where(c.at)}: give one of them another layer or trim its body behind the pivot line (clear of the melt edge).`,
+    });
+  }
   for (const t of transmission.joints) {
     if (t.worstDeg >= goodMin && t.worstDeg <= goodMax) continue;
     const at = t.worstAt;
-    const station = at.position !== null ? stations.representatives[at.position]! : null;
-    const where =
-      at.leg !== null
-        ? `between stations ${stations.representatives[at.leg[0]]} and ${stations.representatives[at.leg[1]]}, ${Math.round(at.fraction * 100)} % of the way`
-        : `at station ${station}`;
     const limit = t.worstDeg < goodMin ? goodMin : goodMax;
     findings.push({
       code: 'TRANSMISSION_ANGLE_AT_JOINT',
       severity: 'warning',
-      ...(station !== null ? { station } : at.leg ? { station: stations.representatives[at.leg[0]]! } : {}),
+      station: stationOf(at),
       value: t.worstDeg,
       limit,
-      message: `At ${t.jointId} two plates drive each other at a transmission angle of ${fmt(t.worstDeg)}° ${where} (usual rule ${goodMin}°–${goodMax}°; over the motion ${fmt(t.minDeg)}°–${fmt(t.maxDeg)}°). Near 0° or 180° the plates are close to a stretched or folded dead point: melt pressure there loads the pins and actuator heavily and the plates' position becomes sensitive to pin clearance. A link to one of the two plates, or a different actuator place, would help.`,
+      message: `At ${t.jointId} two plates drive each other at a transmission angle of ${fmt(t.worstDeg)}° ${where(at)} (usual rule ${goodMin}°–${goodMax}°; over the motion ${fmt(t.minDeg)}°–${fmt(t.maxDeg)}°). Near 0° or 180° the plates are close to a stretched or folded dead point: melt pressure there loads the pins and actuator heavily and the plates' position becomes sensitive to pin clearance. A link to one of the two plates, or a different actuator place, would help.`,
     });
   }
   for (const link of design.links) {

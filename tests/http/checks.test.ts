@@ -16,7 +16,7 @@ const post = (body: unknown) =>
 
 describe('POST /v1/checks', () => {
   it('measures every station of the demo schedule and carries the safety cautions', async () => {
-    const res = await post(fixture('demo-edging-strip'));
+    const res = await post(fixture('crowned-edging-strip'));
     expect(res.status).toBe(200);
     const stations = res.body.stations as Record<
       'area_mm2' | 'perimeter_mm' | 'min_wall_mm' | 'max_wall_mm' | 'draw_down_ratio',
@@ -126,7 +126,7 @@ describe('POST /v1/checks', () => {
   });
 
   it('rejects a negative line speed and a NaN position with their paths', async () => {
-    const body = fixture('demo-edging-strip') as {
+    const body = fixture('crowned-edging-strip') as {
       process: Record<string, unknown>;
       stations: { position_m: unknown }[];
     };
@@ -150,7 +150,7 @@ describe('POST /v1/checks', () => {
   });
 
   it('rejects stations out of order', async () => {
-    const body = fixture('demo-edging-strip') as { stations: { position_m: number }[] };
+    const body = fixture('crowned-edging-strip') as { stations: { position_m: number }[] };
     body.stations[2]!.position_m = 0.1;
     const res = await post(body);
     expect(res.status).toBe(400);
@@ -206,7 +206,7 @@ describe('rate limit', () => {
 
 describe('unknown fields', () => {
   it('warns, with the path, about a field the format does not know instead of dropping it silently', async () => {
-    const body = fixture('demo-edging-strip') as {
+    const body = fixture('crowned-edging-strip') as {
       limits: Record<string, unknown>;
       stations: Record<string, unknown>[];
     };

@@ -67,6 +67,19 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
     expect(plan.chains_tried.filter((c: { verdict: string }) => c.verdict === 'chosen')).toHaveLength(1);
   });
 
+  it('plans the crowned strip as incomplete: one actuator is not found, the fewest found come fully built', async () => {
+    const created = await post(fixture('crowned-edging-strip'));
+    const plan = (await request(app.server).get(created.headers.location as string)).body;
+    // a controller that checks only status must not read this as success
+    expect(plan.status).toBe('incomplete');
+    expect(plan.outcome.meets_request).toBe(false);
+    expect(plan.outcome.shortfalls[0]).toMatch(/1 actuator\(s\) were asked for; the fewest found/);
+    expect(plan.mechanisation.status).toBe('mechanised');
+    expect(plan.mechanism.actuators.length).toBe(plan.mechanisation.actuator_count);
+    expect(plan.mechanism.actuators.length).toBeGreaterThan(1);
+    expect(plan.findings.some((f: { code: string }) => f.code === 'NO_MECHANISM')).toBe(true);
+  });
+
   it('stores a failed plan with its reason when the stations cannot be reconciled', async () => {
     const created = await post(fixture('fixed-part-disagrees'));
     expect(created.status).toBe(202);
