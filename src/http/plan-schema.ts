@@ -35,7 +35,19 @@ export const PlanStationWire = z.object({
 });
 
 export const MechanismWire = z.object({
-  mobility: z.number().int().describe('Grübler–Kutzbach degrees of freedom'),
+  mobility: z
+    .number()
+    .int()
+    .describe(
+      'degrees of freedom of the mechanism without its actuators, by the Grübler–Kutzbach count: the one place that says how many actuators drive the plan (each takes one); for a mechanism that passed, it equals the actuator count',
+    ),
+  mobility_by_jacobian_rank: z
+    .number()
+    .int()
+    .nullable()
+    .describe(
+      'the same checked numerically: unknowns − rank of the constraint Jacobian at the first station; null for the bare chain',
+    ),
   bodies: z.array(z.object({ id: z.string(), kind: z.enum(['die_body', 'plate', 'link']), layer: z.number().int() })),
   joints: z.array(
     z.object({
@@ -109,7 +121,6 @@ export const MechanisationWire = z.object({
   ground_pivot_rule: z.string(),
   layer_model: z.string(),
   link_count: z.number().int(),
-  mobility: z.object({ grubler: z.number().int(), numerical: z.number().int() }).nullable(),
   transmission_angle_deg: z
     .object({
       min: z.number().nullable(),

@@ -108,9 +108,6 @@ export function toPlanReport(record: PlanRecord): PlanReport {
           ground_pivot_rule: plan.mechanisation.groundPivotRule,
           layer_model: plan.mechanisation.layerModel,
           link_count: plan.mechanisation.links.length,
-          mobility: plan.mechanisation.mobility
-            ? { grubler: plan.mechanisation.mobility.grubler, numerical: plan.mechanisation.mobility.numerical }
-            : null,
           transmission_angle_deg: {
             min: plan.mechanisation.transmission.minDeg === null ? null : sig(plan.mechanisation.transmission.minDeg),
             max: plan.mechanisation.transmission.maxDeg === null ? null : sig(plan.mechanisation.transmission.maxDeg),
@@ -142,6 +139,7 @@ export function toPlanReport(record: PlanRecord): PlanReport {
     mechanism: plan.mechanism
       ? {
           mobility: plan.mechanism.mobility,
+          mobility_by_jacobian_rank: plan.mechanisation?.mobility?.numerical ?? null,
           bodies: plan.mechanism.bodies.map((b) => ({ ...b })),
           joints: plan.mechanism.joints.map((j) => ({
             id: j.id,

@@ -107,6 +107,7 @@ export function linkCandidates(context: MechaniseContext, body: string): PlateCa
     found.push(...fromB.dyads);
     for (let k = 0; k < fromB.collinear; k++) reject('COLLINEAR');
     for (let k = 0; k < fromB.residualTooLarge; k++) reject('RESIDUAL');
+    for (let k = 0; k < fromB.outsidePinRegion; k++) reject('PIN_OUTSIDE_PLATE');
     const pinA = a === 'die_body' ? null : context.pinRegions.get(a)!;
     if (!pinA && relative.length === 3) {
       // any centre has its circle point for three positions: sample the allowed die body too (kinematic inversion)

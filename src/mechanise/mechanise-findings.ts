@@ -17,7 +17,7 @@ function reasons(options: MechaniseContext['options']): Readonly<Record<string, 
     GROUND_IN_OPENING: 'have their ground pivot in the die opening (or within a pin clearance of it)',
     GROUND_IN_MELT: 'have their ground pivot in the melt channel',
     GROUND_UNDER_PLATE: 'have their ground pivot where a plate sweeps over it',
-    PIN_OUTSIDE_PLATE: "need a pin outside the other plate's body",
+    PIN_OUTSIDE_PLATE: "need a pin outside a plate's body (behind its pivot line, clear of its holes)",
     TOO_SHORT: `are shorter than ${options.linkLengthMinMm} mm`,
     TOO_LONG: `are longer than ${options.linkLengthMaxMm} mm`,
     CROSSES_MELT: 'come too close to the melt channel at a station',
@@ -290,8 +290,14 @@ export function failureFindings(
 
 /** Why no link fits one plate, from the search's tallies, in a process engineer's words. */
 function plateMessage(context: MechaniseContext, p: PlateSearch): string {
+  const why = reasons(context.options);
   if (p.tried === 0) {
-    return `${p.body} can take no binary link: its body has no room for a link pin behind the pivot line (plate too short or too shallow).`;
+    const room = context.pinRegions.get(p.body)?.grid(context.options.circlePointSteps).length ?? 0;
+    if (room === 0) {
+      return `${p.body} can take no binary link: its body has no room for a link pin behind the pivot line (plate too short or too shallow).`;
+    }
+    const all = summarise(p.rejections, why);
+    return `${p.body} can take no binary link: no link could be synthesised for its positions${all ? `; of the solutions, ${all}` : ''}.`;
   }
   const parts: string[] = [];
   if (p.screened === 0) parts.push(`${p.body} can take no binary link: none of the ${p.tried} tried passes screening.`);
@@ -318,7 +324,6 @@ function plateMessage(context: MechaniseContext, p: PlateSearch): string {
       ` Between stations the plate turns about points near (${fmt(p.pole[0])}, ${fmt(p.pole[1])}) mm (${place}), and the ground pivot of a rigid link lies near there unless its plate pin is far off.`,
     );
   }
-  const why = reasons(context.options);
   const ground = summarise(p.groundRejections, why);
   if (ground) parts.push(` Of the ${p.triedFromGround} links from the die body, ${ground}.`);
   const all = summarise(p.rejections, why);

@@ -25,6 +25,8 @@ export interface DyadSynthesis {
   readonly collinear: number;
   /** Least-squares fits that did not converge or missed the residual limit. */
   readonly residualTooLarge: number;
+  /** Exact or least-squares solutions whose circle point lies outside B's pin region. */
+  readonly outsidePinRegion: number;
 }
 
 /** Settings of `synthesiseDyads`. */
@@ -57,8 +59,9 @@ export function synthesiseDyads(poses: readonly RelativePose[], settings: DyadSy
   const dyads: SynthesisedDyad[] = [];
   let collinear = 0;
   let residualTooLarge = 0;
+  let outsidePinRegion = 0;
   const { circlePoints, pinRegion } = settings;
-  if (circlePoints.length === 0) return { dyads, collinear, residualTooLarge };
+  if (circlePoints.length === 0) return { dyads, collinear, residualTooLarge, outsidePinRegion };
   if (m <= 2) {
     const lengths = [0.25, 0.5, 1].map(
       (f) => settings.linkLengthMinMm + f * 0.5 * (settings.linkLengthMaxMm - settings.linkLengthMinMm),
@@ -101,11 +104,13 @@ export function synthesiseDyads(poses: readonly RelativePose[], settings: DyadSy
     const curve = centrePointCurve4(poses, { extentMm: 2 * settings.linkLengthMaxMm + 100 });
     for (const s of curve.samples) {
       if (pinRegion.contains(s.circlePointLocal)) dyads.push({ ...dyadOf(s), synthesis: 'centre-point-curve' });
+      else outsidePinRegion++;
     }
   } else if (m === 5) {
     const b = burmesterPoints5(poses);
     for (const pair of b.pairs) {
       if (pinRegion.contains(pair.circlePointLocal)) dyads.push({ ...dyadOf(pair), synthesis: 'burmester-point' });
+      else outsidePinRegion++;
     }
   }
   if (m >= 4) {
@@ -151,11 +156,12 @@ export function synthesiseDyads(poses: readonly RelativePose[], settings: DyadSy
         const synthesis =
           exact && m === 4 ? 'centre-point-curve' : exact && m === 5 ? 'burmester-point' : 'least-squares';
         dyads.push({ ...dyad, synthesis });
-      } else if (m > 5) residualTooLarge++;
+      } else if (!pinRegion.contains(fit.circlePointLocal)) outsidePinRegion++;
+      else if (m > 5) residualTooLarge++;
     }
     if (m > 5) residualTooLarge += fits.failed;
   }
-  return { dyads, collinear, residualTooLarge };
+  return { dyads, collinear, residualTooLarge, outsidePinRegion };
 }
 
 /** A dyad whose pin distance varies less than this over the positions is exact, mm. */
