@@ -168,24 +168,24 @@ const fixedPartDisagrees = {
 
 /**
  * The demo: an edging strip 40 mm wide on a flat base whose top edge carries a ridge and a groove that roll to the
- * right and back every 1.5 m. Its stations are made, for this demo, by a die of four plates (12, 14, 16 and 16 mm
- * between pivots, pinned to the die body at (−6, 16) and (46, 16)) whose second plate is held by one link from the die
- * body, all driven by one actuator on the first plate's ground pivot at 0.25, 0.40 and 0.55 rad: the melt edge is the
- * plates' pivot line swollen by e = 5 mm (DOMAIN.md §2). The chain closes by the law of cosines.
+ * right and back every 1.5 m. Its stations are made, for this demo, by a die of four plates, 14 mm between pivots,
+ * pinned to the die body at (−6, 12) and (46, 12), whose second plate is held by one link from the die body, all
+ * driven by one actuator on the first plate's ground pivot at 0.15, 0.30 and 0.45 rad: the melt edge is the plates'
+ * pivot line swollen by e = 5 mm (DOMAIN.md §2). The chain closes by the law of cosines.
  */
 function rollingRidgeStations(): { outer: P[]; holes: P[][] }[] {
-  const start: P = [-6, 16];
-  const end: P = [46, 16];
-  const lengths = [12, 14, 16, 16];
+  const start: P = [-6, 12];
+  const end: P = [46, 12];
+  const lengths = [14, 14, 14, 14];
   const plate1End = (t: number): P => [start[0] + lengths[0]! * Math.cos(t), start[1] + lengths[0]! * Math.sin(t)];
-  // the link: die-body pin at (−30, 42), plate pin at (10, 8) in plate 2's frame, drawn with plate 1 at 0.35 rad and
+  // the link: die-body pin at (−30, 40), plate pin at (7, 9) in plate 2's frame, drawn with plate 1 at 0.3 rad and
   // plate 2 level
-  const ground: P = [-30, 42];
-  const onPlate: P = [10, 8];
-  const drawn = plate1End(0.35);
+  const ground: P = [-30, 40];
+  const onPlate: P = [7, 9];
+  const drawn = plate1End(0.3);
   const linkLength = Math.hypot(drawn[0] + onPlate[0] - ground[0], drawn[1] + onPlate[1] - ground[1]);
   const pinRadius = Math.hypot(onPlate[0], onPlate[1]);
-  return [0.25, 0.4, 0.55, 0.4].map((t1) => {
+  return [0.15, 0.3, 0.45, 0.3].map((t1) => {
     const j1 = plate1End(t1);
     // plate 2's pin: circle (j1, |onPlate|) meets circle (ground, link length), on the branch that keeps plate 2 level
     const dx = ground[0] - j1[0];

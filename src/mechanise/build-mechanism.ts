@@ -12,7 +12,7 @@ import { wrapAngle } from '../numeric/index.js';
 import type { ChainTopology } from './chain-topology.js';
 import type { LinkDesign } from './link-design.js';
 
-/** First layer given to binary links: above the plates (1, 2) and the slider blocks of slotted ends (3). */
+/** First layer given to binary links with the plates on layers 1 and 2 and slider blocks on 3. */
 export const FIRST_LINK_LAYER = 4;
 
 /** Joint ids of a placed link: its end on body A and its end on plate B. */
@@ -23,7 +23,7 @@ export function linkJointIds(link: Pick<LinkDesign, 'id' | 'bodyA'>): { readonly
 /**
  * The kinematic model of (part of) the chain with binary links and actuators: the die body, the chain bodies listed
  * in `chainBodies` (all by default) with every chain joint between them, each link as a body of kind `link` (frame
- * at its pin on A, x axis toward its pin on B, its own layer from `FIRST_LINK_LAYER` on, so links never meet each
+ * at its pin on A, x axis toward its pin on B, its own layer from `topology.linkLayerBase` on, so links never meet each
  * other), and one driver per actuator joint (`actuator_1`, …; actuator value = joint value). `initial` is the pose of
  * every body at `initial` (chain body poses, die-body frame), so the model is drawn assembled.
  */
@@ -51,7 +51,7 @@ export function buildMechanism(
     bodies.push({
       id: link.id,
       kind: 'link',
-      layer: FIRST_LINK_LAYER + m,
+      layer: topology.linkLayerBase + m,
       points: { a: [0, 0], b: [link.lengthMm, 0] },
       initial: { x: a[0], y: a[1], phi: Math.atan2(b[1] - a[1], b[0] - a[0]) },
     });

@@ -49,15 +49,18 @@ export interface ChainTopology {
   readonly pivots: readonly { readonly body: string; readonly local: Point }[];
   /** Fitted pose of every chain body at every station (schedule order), die-body frame; angles unwrapped along it. */
   readonly fittedPoses: readonly (readonly BodyPose[])[];
+  /** First layer for binary links: above every plate and slider block. */
+  readonly linkLayerBase: number;
 }
 
 /**
  * Reads the fitted chain as a mechanism loop (DOMAIN.md §2): each plate's frame has pivot 0 of the plate at its
  * origin and its x axis toward its next pivot; a telescoping pair is two bodies sliding along that axis; a slotted end
- * is a slider block (frame angle 0) on a prismatic joint with the die body. Plates alternate layers 1 and 2, the slide
- * of a pair takes the other layer, slider blocks take layer 3.
+ * is a slider block (frame angle 0) on a prismatic joint with the die body. Plates alternate layers 1 and 2 unless
+ * `plateLayers` (one per plate, from 1) says otherwise; the slide of a pair takes the other of 1 and 2; slider blocks
+ * take the layer above the highest plate, and links start above them (`linkLayerBase`).
  */
-export function chainTopology(fit: MechanisableChain): ChainTopology {
+export function chainTopology(fit: MechanisableChain, plateLayers: readonly number[] | null = null): ChainTopology {
   const { chain } = fit;
   const n = chain.lengthsMm.length;
   const stations = chain.pivots.length;
@@ -66,14 +69,15 @@ export function chainTopology(fit: MechanisableChain): ChainTopology {
   const joints: Joint[] = [];
   const pivots: { body: string; local: Point }[] = [];
 
-  const plateLayer = (k: number) => (k % 2 === 1 ? 1 : 2);
+  const plateLayer = (k: number) => plateLayers?.[k - 1] ?? (k % 2 === 1 ? 1 : 2);
+  const sliderLayer = Math.max(2, ...(plateLayers ?? [])) + 1;
   if (chain.start.kind === 'slot') {
     bodies.push({
       id: 'slider_start',
       kind: 'link',
       role: 'slider',
       plate: 0,
-      layer: 3,
+      layer: sliderLayer,
       pinSpanMm: [0, 0],
       pivotsLocal: [[0, 0]],
     });
@@ -136,7 +140,7 @@ export function chainTopology(fit: MechanisableChain): ChainTopology {
         kind: 'link',
         role: 'slider',
         plate: 0,
-        layer: 3,
+        layer: sliderLayer,
         pinSpanMm: [0, 0],
         pivotsLocal: [[0, 0]],
       });
@@ -168,7 +172,7 @@ export function chainTopology(fit: MechanisableChain): ChainTopology {
     });
     fittedPoses.push(poses);
   }
-  return { bodies, joints, degreesOfFreedom: bodies.length - 2, pivots, fittedPoses };
+  return { bodies, joints, degreesOfFreedom: bodies.length - 2, pivots, fittedPoses, linkLayerBase: sliderLayer + 1 };
 }
 
 function revolute(id: string, bodyI: string, pointI: Point, bodyJ: string, pointJ: Point): Joint {

@@ -8,6 +8,7 @@ import { directMode } from './direct-mode.js';
 import type { MotionDefect } from './drive-through-stations.js';
 import type { EvaluatedDesign } from './evaluate-design.js';
 import { groundPivotRegion } from './ground-pivot-region.js';
+import { ringGap } from './motion-clearance.js';
 import type { PlateCandidates } from './link-candidates.js';
 import type { MechanisationResult, MechanismReport, StationOutcome } from './mechanisation-result.js';
 import type { MechaniseContext } from './mechanise-context.js';
@@ -38,8 +39,8 @@ export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest
     ...request,
     linkLengthMinMm: request.linkLengthMinMm ?? fit.shape.holeRadiusMm + fit.shape.edgeOffsetMm,
   });
-  const topology = chainTopology(fit);
-  const stations = assembleStations(topology, options.mergeToleranceMm);
+  const alternating = chainTopology(fit);
+  const stations = assembleStations(alternating, options.mergeToleranceMm);
   const distinct = stations.representatives.length;
   const e = fit.shape.edgeOffsetMm;
   const clearanceMm = options.pinClearanceMm ?? e;
@@ -53,13 +54,16 @@ export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest
     if (from !== to) legs.push([from, to]);
   }
   const groundRegion = groundPivotRegion(fit.opening, orifices, options.frameMarginMm, clearanceMm);
-  const allPivots = stations.poses.map((p) => pivotPoints(topology, p));
+  const allPivots = stations.poses.map((p) => pivotPoints(alternating, p));
   const fans = pivotFans(allPivots);
   const coarse = { ...fit.shape, arcToleranceMm: Math.max(fit.shape.arcToleranceMm, 0.2) };
   const platesAt = stations.representatives.map((r) => {
     const pv = allPivots[r]!;
     return pv.slice(1).map((b, k) => plateOutline(pv[k]!, b, coarse, null, { atA: fans[k]!, atB: fans[k + 1]! }).outer);
   });
+  // plates that overlap at a station when every other one shares a layer get a layer of their own
+  const layers = fit.chain.telescoping.length === 0 ? plateLayers(platesAt) : null;
+  const topology = layers ? chainTopology(fit, layers) : alternating;
   const context: MechaniseContext = {
     platesAt,
     options,
@@ -136,6 +140,27 @@ export function mechaniseChain(fit: MechanisableChain, request: MechaniseRequest
     );
   }
   return noMechanism(base, context, first.plates, first.defects, smallestFrom(a + 1), first.search, 'search');
+}
+
+/**
+ * Layers for the plates (1-based, chain order) so that no two plates on one layer overlap at any distinct position:
+ * neighbours always differ (they overlap round their common pivot), and each plate takes the lowest layer left by its
+ * neighbour and by the earlier plates it overlaps (greedy colouring). Null when plain alternation (1, 2, 1, …) already
+ * keeps every layer clear.
+ */
+function plateLayers(platesAt: readonly (readonly (readonly Point[])[])[]): number[] | null {
+  const n = platesAt[0]?.length ?? 0;
+  const clash = (i: number, j: number) => platesAt.some((plates) => ringGap(plates[i]!, plates[j]!) < 0);
+  const layers: number[] = [];
+  for (let k = 0; k < n; k++) {
+    const taken = new Set<number>();
+    if (k > 0) taken.add(layers[k - 1]!);
+    for (let j = 0; j < k - 1; j++) if (clash(j, k)) taken.add(layers[j]!);
+    let layer = 1;
+    while (taken.has(layer)) layer++;
+    layers.push(layer);
+  }
+  return layers.every((l, k) => l === (k % 2 === 0 ? 1 : 2)) ? null : layers;
 }
 
 function describeSynthesis(distinct: number, residualLimitMm: number): string {

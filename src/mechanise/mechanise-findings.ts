@@ -184,10 +184,11 @@ export function successFindings(
 
 /** The stacking of plates and links, in words. */
 export const LAYER_MODEL =
-  'Plates alternate between layers 1 and 2 (the sliding half of a telescoping pair takes the other layer), slider ' +
-  'blocks of slotted ends take layer 3, and every binary link has a layer of its own from 4 up, so links cannot ' +
-  'collide with each other or with the plates by construction; each link is checked to stay clear of the melt at ' +
-  'every station.';
+  'Plates alternate between layers 1 and 2, and a plate that would overlap another of its layer at a station takes ' +
+  'the next free layer (the sliding half of a telescoping pair takes the other of 1 and 2); slider blocks of slotted ' +
+  'ends take the layer above the plates, and every binary link a layer of its own above those, so links cannot ' +
+  'collide with each other by construction. Pins and links are checked for room against every other part along the ' +
+  'whole motion (CLEARANCE).';
 
 /** Findings of a mechanisation that found nothing: why, per plate, and what would help. */
 export function failureFindings(

@@ -230,7 +230,7 @@ function signedDistance(p: Point, ring: Ring): number {
  * Gap between two rings, mm: the smallest vertex-to-boundary distance when they are apart; when they overlap, minus
  * the deepest any vertex of one reaches inside the other.
  */
-function ringGap(a: Ring, b: Ring): number {
+export function ringGap(a: Ring, b: Ring): number {
   let gap = Number.POSITIVE_INFINITY;
   let depth = 0;
   for (const [from, to] of [

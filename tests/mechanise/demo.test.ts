@@ -56,6 +56,31 @@ describe('mechaniseChain on the demo edging strip (README; stations made by a 4-
   });
 });
 
+describe('mechaniseChain on the demo: room between the parts over the whole motion', () => {
+  const { schedule, fit, request } = load('demo-edging-strip');
+  const result = mechaniseChain(fit, { ...request, actuatorCount: schedule.actuators.count });
+
+  it('no two plates on one layer overlap anywhere: a plate that would, takes a layer of its own', () => {
+    // plates 2 and 4 overlap at station 2 on alternating layers (measured by the clearance inspector), so one of
+    // them moves up (greedy graph colouring along the chain)
+    const layers = new Map(result.mechanism!.bodies.map((b) => [b.id, b.layer] as const));
+    expect(layers.get('plate_2')).not.toBe(layers.get('plate_4'));
+    expect(new Set([1, 2, 3].map((k) => layers.get(`plate_${k}`)))).not.toContain(layers.get('plate_4'));
+    for (const c of result.clearances) expect(c.clearanceMm).toBeGreaterThanOrEqual(0);
+    // every binary link lies above every plate
+    const plateTop = Math.max(...result.mechanism!.bodies.filter((b) => b.kind === 'plate').map((b) => b.layer));
+    for (const b of result.mechanism!.bodies.filter((x) => x.kind === 'link'))
+      expect(b.layer).toBeGreaterThan(plateTop);
+  });
+
+  it('reports its tightest room with the parts and where it occurs', () => {
+    const finding = result.findings.find((f) => f.code === 'CLEARANCE')!;
+    const tightest = result.clearances.filter((c) => c.kind !== 'same-layer')[0]!;
+    expect(finding.value).toBeCloseTo(tightest.clearanceMm, 9);
+    expect(finding.message).toContain(`between ${tightest.parts[0]} and ${tightest.parts[1]}`);
+  });
+});
+
 describe('mechaniseChain on the crowned edging strip (flat → crown → double crown → flat)', () => {
   const { fit, request } = load('crowned-edging-strip');
   const result = mechaniseChain(fit, { ...request, actuatorCount: 1 });
