@@ -4,7 +4,8 @@
  * path (wire schema → toSchedule → planSchedule), and compared with the truth. Per seed it prints the true and found
  * plate counts, links, stations, whether the one requested actuator was met, the worst station deviation and the wall
  * time of the plan; then the recovery rates (true plate count, actuator count, tolerance, all three) and the median
- * and largest time per plan. Figures only, no assertions.
+ * and largest time per plan; then the generator's own cost (time, draws per accepted mechanism by plate count, draws
+ * turned down by the planner's clearance rules). Figures only, no assertions.
  *
  * Run with `npm run bench:roundtrip -- --seeds 40` (`--from S` to start at another seed, `--span walls` to post an
  * explicit moving span on the channel walls instead of letting the service find it).
@@ -12,7 +13,7 @@
 import { ScheduleWire } from '../src/http/schedule-schema.js';
 import { toSchedule } from '../src/http/to-schedule.js';
 import { planSchedule } from '../src/pipeline/index.js';
-import { randomMechanism } from '../tests/support/random-mechanism.js';
+import { CLEARANCE_REJECTIONS, randomMechanism } from '../tests/support/random-mechanism.js';
 
 function argument(name: string, fallback: string): string {
   const at = process.argv.indexOf(`--${name}`);
@@ -45,8 +46,15 @@ console.log(
 );
 console.log('seed  plates true/found  links  stations  actuators met  worst dev mm     ms  note');
 const rows: Row[] = [];
+const generation = { ms: 0, draws: new Map<number, number[]>(), clearanceRedraws: 0 };
 for (let seed = from; seed < from + seeds; seed++) {
+  const g0 = performance.now();
   const m = randomMechanism(seed, { movingSpan: span });
+  generation.ms += performance.now() - g0;
+  const drawsOf = generation.draws.get(m.lengths.length) ?? [];
+  drawsOf.push(m.draws);
+  generation.draws.set(m.lengths.length, drawsOf);
+  for (const why of CLEARANCE_REJECTIONS) generation.clearanceRedraws += m.rejections[why] ?? 0;
   const tolerance = m.schedule.limits!.fit_tolerance_mm!;
   const t0 = performance.now();
   const mapping = toSchedule(ScheduleWire.parse(m.schedule));
@@ -120,4 +128,14 @@ for (const n of [3, 4, 5]) {
   if (of.length === 0) continue;
   const all = of.filter((r) => r.countMet && r.actuatorsMet && r.toleranceMet).length;
   console.log(`  ${n} plates: all three met on ${all}/${of.length}`);
+}
+console.log(
+  `generation: ${generation.ms.toFixed(0)} ms for ${rows.length} seeds; ${generation.clearanceRedraws} draws turned ` +
+    "down by the planner's clearance rules",
+);
+for (const [n, draws] of [...generation.draws].sort((p, q) => p[0] - q[0])) {
+  const mean = draws.reduce((t, d) => t + d, 0) / draws.length;
+  console.log(
+    `  ${n} plates: ${mean.toFixed(0)} draws per accepted mechanism on average, at most ${Math.max(...draws)}`,
+  );
 }

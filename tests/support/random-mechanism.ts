@@ -26,13 +26,21 @@
  * closing pair of plates stays clear of its straight (dead-point) pose, the melt edge stays inside the channel
  * (3 mm ≤ y ≤ H − 3 mm), every link clears the melt by more than e, and every joint turns by at least
  * `minArticulationDeg` across the stations (else fewer plates or links could make the same orifices and the truth
- * would not be minimal).
+ * would not be minimal). Last, a draw is rejected when its parts would collide anywhere along the motion by the
+ * planner's published clearance rules (DEVELOPERS.md; src/mechanise/motion-clearance.ts): a ground pivot under a
+ * plate, a link pin under a plate of a layer it passes (plate layers as the planner assigns them) or within a link's
+ * width of another link, a link over the die opening less than e inside the plates (`clearanceViolation`).
  *
- * Why it is an independent reference: nothing here runs code from src/ (the wire type is imported for the compiler
- * only); every position comes from closed-form triangle solutions, and the link lengths, pins and pivots are known
- * exactly, so a planner that returns N plates, N − 3 links and one actuator has recovered them, not reproduced itself.
+ * Why it is an independent reference: every position comes from closed-form triangle solutions, and the link
+ * lengths, pins and pivots are known exactly, so a planner that returns N plates, N − 3 links and one actuator has
+ * recovered them, not reproduced itself. The one piece of src/ run here is the planner's plate outline
+ * (`plateOutline`, `pivotFans`), and only in the validity filter: it applies the planner's published physical rules
+ * so that every truth is an admissible design (one the planner is right to accept), while the truth itself, and so
+ * the answer the round trip expects, is still constructed and computed independently (the wire type is imported for
+ * the compiler only).
  */
 import type { ScheduleWireInput } from '../../src/http/schedule-schema.js';
+import { pivotFans, plateOutline } from '../../src/synthesis/index.js';
 import { channelOrifice, closeChain, meltEdgeY, type P } from './known-chain.js';
 
 /** Pivot hole diameter, mm (the service's default plate). */
@@ -318,11 +326,13 @@ function drawMechanism(rand: () => number, structure: Structure, o: Resolved): D
   const lo = sorted[0]!;
   const hi = sorted.at(-1)!;
   const steps = Math.ceil((hi - lo) / MOTION_STEP_RAD);
+  const motion: Configuration[] = [];
   for (let s = 0; s <= steps; s++) {
     const c = solve(frame, lo + ((hi - lo) * s) / steps);
     if (typeof c === 'string') return c;
     const why = inadmissible(frame, c, width, height, 1);
     if (why) return why;
+    motion.push(c);
   }
 
   const stations: RandomStation[] = [];
@@ -362,6 +372,16 @@ function drawMechanism(rand: () => number, structure: Structure, o: Resolved): D
     if (x < -FRAME_MM || x > width + FRAME_MM || y < -FRAME_MM || y > top + FRAME_MM) {
       return 'ground pivot outside the frame';
     }
+  }
+  // room between the parts along the whole motion, by the planner's rules (last: the dearest check)
+  if (links.length > 0) {
+    const room = clearanceViolation(
+      frame,
+      stations.map((s) => s.pivots),
+      [...motion, ...stations],
+      width,
+    );
+    if (room) return room;
   }
   return {
     lengths,
@@ -454,6 +474,184 @@ function inadmissible(frame: Frame, c: Configuration, width: number, height: num
     if (segmentToRingClearance(other, pin, orifice) < E + LINK_CLEARANCE_MARGIN_MM) return 'link crosses the melt';
   }
   return null;
+}
+
+/**
+ * The planner's plate outline (src/synthesis `plateOutline`: straight melt edge at e, body to depth − e behind the
+ * pivot line, fanned round each interior pivot by `pivotFans` of the stations) with round arcs drawn finely.
+ */
+const PLATE_SHAPE = {
+  edgeOffsetMm: E,
+  depthMm: PLATE_DEPTH_MM,
+  holeRadiusMm: HOLE_DIAMETER_MM / 2,
+  arcToleranceMm: 0.02,
+} as const;
+/**
+ * Room kept beyond each clearance rule of the planner, mm: its outlines are drawn with 0.2 mm chords (the chords lie
+ * inside the arcs) and its fitted chain may stray from the truth by the fit tolerance.
+ */
+const ROOM_MARGIN_MM = 0.3;
+/** A link's pin line is sampled this often against the die opening, mm. */
+const LINK_SAMPLE_MM = 0.5;
+
+/** The rejection reasons of `clearanceViolation` (the planner's clearance rules), as `rejections` counts them. */
+export const CLEARANCE_REJECTIONS = [
+  'ground pivot under a plate',
+  'plate layers undecided',
+  'link pin under a plate of a layer above',
+  'link pin through another link',
+  'link over the melt',
+] as const;
+
+/**
+ * Why the parts of a mechanism would collide somewhere along its motion, or null: the planner's clearance rules
+ * (DEVELOPERS.md; src/mechanise/motion-clearance.ts `makeClearanceInspector`), each with `ROOM_MARGIN_MM` to spare,
+ * checked on every configuration given:
+ * 1. every ground pivot outside every plate outline by the pin radius (its pin reaches through every plate layer);
+ * 2. every link pin on a plate outside every plate of a higher layer by the pin radius (layers as the planner gives
+ *    them, `plateLayers`: 1, 2, 1, 2, … unless plates on one layer would overlap; links lie above every plate), and
+ *    every link pin on a plate at least pin radius + e from the pin line of every other link (the planner numbers
+ *    links in the order it finds them, so whichever link it puts lower, the other's pins pass through it);
+ * 3. every point of a link's pin line over the die opening (the envelope of the stations' orifices) at least e inside
+ *    some plate outline.
+ * The outlines are the planner's own (`plateOutline`, `pivotFans` from src/synthesis), used here only to filter draws.
+ */
+function clearanceViolation(
+  frame: Frame,
+  stationPivots: readonly P[][],
+  configurations: readonly Configuration[],
+  width: number,
+): (typeof CLEARANCE_REJECTIONS)[number] | null {
+  const n = frame.lengths.length;
+  const fans = pivotFans(stationPivots);
+  const outlineAt = (pivots: readonly P[], k: number) =>
+    plateOutline(pivots[k]!, pivots[k + 1]!, PLATE_SHAPE, null, { atA: fans[k]!, atB: fans[k + 1]! }).outer as P[];
+  const layers = plateLayers(stationPivots.map((pv) => Array.from({ length: n }, (_, k) => outlineAt(pv, k))));
+  if (layers === null) return 'plate layers undecided';
+  const pinRoom = PLATE_SHAPE.holeRadiusMm + ROOM_MARGIN_MM;
+  // the die opening {0 ≤ x ≤ W, 0 ≤ y ≤ highest melt edge over the stations}, its top tabulated every 0.25 mm and
+  // taken at the higher neighbour (the opening grown a little, on the safe side)
+  const cells = Math.ceil(width / 0.25);
+  const top = Array.from({ length: cells + 1 }, (_, i) =>
+    Math.max(...stationPivots.map((pv) => meltEdgeY(pv, E, Math.min(width, i * 0.25)))),
+  );
+  const opening = (p: P) => {
+    if (!(p[0] >= 0 && p[0] <= width && p[1] >= 0)) return false;
+    const i = Math.min(cells - 1, Math.floor(p[0] / 0.25));
+    return p[1] <= Math.max(top[i]!, top[i + 1]!);
+  };
+  for (const c of configurations) {
+    const outlines = Array.from({ length: n }, (_, k) => outlineAt(c.pivots, k));
+    for (const [i, link] of frame.links.entries()) {
+      const [other, pin] = c.linkEnds[i]!;
+      if (link.other.kind === 'ground') {
+        if (outlines.some((ring) => signedDistance(other, ring) < pinRoom)) return 'ground pivot under a plate';
+      }
+      const platePins: [P, number][] = [[pin, link.plate]];
+      if (link.other.kind === 'plate') platePins.push([other, link.other.plate]);
+      for (const [p, plate] of platePins) {
+        const own = layers[plate - 1]!;
+        if (outlines.some((ring, k) => layers[k]! > own && signedDistance(p, ring) < pinRoom)) {
+          return 'link pin under a plate of a layer above';
+        }
+        for (const [j] of frame.links.entries()) {
+          if (j === i) continue;
+          const [a, b] = c.linkEnds[j]!;
+          if (pointSegment(p, a, b) < pinRoom + E) return 'link pin through another link';
+        }
+      }
+      const steps = Math.max(2, Math.ceil(Math.hypot(pin[0] - other[0], pin[1] - other[1]) / LINK_SAMPLE_MM));
+      for (let s = 0; s <= steps; s++) {
+        const q: P = [other[0] + ((pin[0] - other[0]) * s) / steps, other[1] + ((pin[1] - other[1]) * s) / steps];
+        if (!opening(q)) continue;
+        if (!outlines.some((ring) => -signedDistance(q, ring) >= E + ROOM_MARGIN_MM)) return 'link over the melt';
+      }
+    }
+  }
+  return null;
+}
+
+/**
+ * The plates' layers (1-based, chain order) as the planner assigns them (src/mechanise/mechanise-chain.ts
+ * `plateLayers`): greedy colouring along the chain, each plate on the lowest layer not taken by its neighbour before
+ * it nor by an earlier plate it overlaps at some station (which gives 1, 2, 1, 2, … when none overlap); null when
+ * some pair's overlap is within `ROOM_MARGIN_MM` of the limit, so the planner's coarser outlines might decide it the
+ * other way.
+ *
+ * @param outlines outlines[s][k]: plate k + 1's outer ring at station s
+ */
+function plateLayers(outlines: readonly (readonly P[][])[]): number[] | null {
+  const n = outlines[0]?.length ?? 0;
+  const layers: number[] = [];
+  for (let k = 0; k < n; k++) {
+    const taken = new Set<number>();
+    if (k > 0) taken.add(layers[k - 1]!);
+    for (let j = 0; j < k - 1; j++) {
+      const gap = Math.min(...outlines.map((plates) => ringGap(plates[j]!, plates[k]!)));
+      if (Math.abs(gap) < ROOM_MARGIN_MM) return null;
+      if (gap < 0) taken.add(layers[j]!);
+    }
+    let layer = 1;
+    while (taken.has(layer)) layer++;
+    layers.push(layer);
+  }
+  return layers;
+}
+
+/**
+ * Gap between two rings, mm: the smallest vertex-to-boundary distance when they are apart; when they overlap, minus
+ * the deepest any vertex of one reaches inside the other (the planner's measure).
+ */
+function ringGap(a: readonly P[], b: readonly P[]): number {
+  let gap = Number.POSITIVE_INFINITY;
+  let depth = 0;
+  for (const [from, to] of [
+    [a, b],
+    [b, a],
+  ] as const) {
+    for (const p of from) {
+      const d = signedDistance(p, to);
+      if (d < 0) depth = Math.max(depth, -d);
+      else gap = Math.min(gap, d);
+    }
+  }
+  return depth > 0 ? -depth : gap;
+}
+
+/** Distance from p to a closed ring's boundary, positive outside the ring and negative inside, mm. */
+function signedDistance(p: P, ring: readonly P[]): number {
+  let d = Number.POSITIVE_INFINITY;
+  for (let k = 0; k < ring.length; k++) d = Math.min(d, pointSegment(p, ring[k]!, ring[(k + 1) % ring.length]!));
+  return pointInRing(p, ring) ? -d : d;
+}
+
+/**
+ * The mechanism's motion between its extreme stations, every `stepRad` of input (the generator's own sampling by
+ * default), each configuration solved in closed form as the stations were: what the clearance rules were checked on.
+ */
+export function motionOf(m: RandomMechanism, stepRad = MOTION_STEP_RAD): MotionSample[] {
+  const frame: Frame = { lengths: m.lengths, start: m.start, end: m.end, links: m.links, elbowUp: m.elbowUp };
+  const inputs = m.stations.map((s) => s.inputRad);
+  const lo = Math.min(...inputs);
+  const hi = Math.max(...inputs);
+  const steps = Math.ceil((hi - lo) / stepRad);
+  return Array.from({ length: steps + 1 }, (_, s) => {
+    const inputRad = lo + ((hi - lo) * s) / steps;
+    const c = solve(frame, inputRad);
+    if (typeof c === 'string') throw new Error(`motionOf(${m.seed}): ${c} at ${inputRad} rad`);
+    return { inputRad, ...c };
+  });
+}
+
+/** One configuration of a mechanism's motion. */
+export interface MotionSample {
+  /** Plate 1's angle, radians. */
+  readonly inputRad: number;
+  /** Chain pivots start … end, die-body frame, mm. */
+  readonly pivots: P[];
+  readonly angles: number[];
+  /** Both pin centres of every link, [other end, pin on the driven plate], mm. */
+  readonly linkEnds: [P, P][];
 }
 
 /** The schedule body of POST /v1/plans for a drawn mechanism. */
