@@ -5,6 +5,7 @@ import {
   type ClearanceRecord,
   clearancePartsOf,
   collisionDefects,
+  linkLayerOrder,
   makeClearanceInspector,
 } from './motion-clearance.js';
 import type { LinkDesign } from './link-design.js';
@@ -28,13 +29,15 @@ export type ActuatorPlace = string | LinkDesign;
 /**
  * Builds the mechanism of `links` and `actuators` on the chain (or on the chain bodies in `chainBodies` only),
  * places it at every distinct position and drives it through the legs of the schedule (`driveThroughStations`).
- * Links are renamed `link_1`, `link_2`, … in the order given.
+ * Links are renamed `link_1`, `link_2`, … in the order given, bottom layer first; when one's plate pin would pass
+ * through the layer of a link whose line it crosses, the links are restacked once (`linkLayerOrder`) and driven again.
  */
 export function evaluateDesign(
   context: MechaniseContext,
   links: readonly LinkDesign[],
   actuators: readonly ActuatorPlace[],
   chainBodies?: ReadonlySet<string>,
+  reordered = false,
 ): EvaluatedDesign {
   const { topology, stations, options } = context;
   const named = links.map((l, k) => ({ ...l, id: `link_${k + 1}` }));
@@ -57,6 +60,16 @@ export function evaluateDesign(
       ? { inspect: (pose: Pose, at: MotionPlace) => clearance.inspect((id) => bodyPose(pose, id), at) }
       : {}),
   });
+  if (clearance && links.length > 1 && !reordered) {
+    // a link's plate pin that crosses another link's line must stop below that link's layer: restack if needed
+    const overlaps = clearance.linkOverlaps();
+    const ids = named.map((l) => l.id);
+    const order = overlaps.length > 0 ? linkLayerOrder(ids, overlaps) : null;
+    if (order && order.some((id, k) => id !== ids[k])) {
+      const restacked = order.map((id) => links[ids.indexOf(id)]!);
+      return evaluateDesign(context, restacked, actuators, chainBodies, true);
+    }
+  }
   const clearances = clearance?.records() ?? [];
   const clashes = collisionDefects(clearances);
   const motion: MotionCheck =

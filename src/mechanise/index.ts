@@ -25,6 +25,7 @@ export {
   clearancePartsOf,
   collisionDefects,
   describeClearance,
+  linkLayerOrder,
   makeClearanceInspector,
 } from './motion-clearance.js';
 export { type GroundPivotRegion, type GroundPivotRejection, groundPivotRegion } from './ground-pivot-region.js';

@@ -40,6 +40,11 @@ export interface ClearanceInspector {
   inspect(poseOf: (id: string) => BodyPose, at: MotionPlace): void;
   /** The smallest gap per pair of parts over every sample inspected, smallest first. */
   records(): ClearanceRecord[];
+  /**
+   * Pairs of links where one's plate pin comes over the other's pin line somewhere along the motion, whatever their
+   * layers: the pin's link must then lie below the other (its pin stops short of the other's layer).
+   */
+  linkOverlaps(): { readonly pinLink: string; readonly lineLink: string }[];
 }
 
 /** The parts whose room is checked, as plain data in their own frames. */
@@ -78,6 +83,7 @@ export interface ClearanceParts {
 export function makeClearanceInspector(parts: ClearanceParts): ClearanceInspector {
   const { plates, links, layerOf, opening, pinRadiusMm: pinRadius, steelMm: steel } = parts;
   const worst = new Map<string, ClearanceRecord>();
+  const overlaps = new Set<string>();
   const note = (kind: ClearanceKind, a: string, b: string, clearanceMm: number, at: MotionPlace) => {
     const key = `${kind}|${a}|${b}`;
     const seen = worst.get(key);
@@ -109,9 +115,10 @@ export function makeClearanceInspector(parts: ClearanceParts): ClearanceInspecto
             note('pin-through-layer', link.id, p.id, signedDistance(end, p.ring) - pinRadius, at);
           }
           for (const other of linkEnds) {
-            if (other.link === link || other.link.layer <= low || other.link.layer >= link.layer) continue;
+            if (other.link === link || other.link.layer <= low) continue;
             const gap = pointToSegmentDistance(end, other.a, other.b) - pinRadius - steel;
-            note('pin-through-layer', link.id, other.link.id, gap, at);
+            if (gap < 0) overlaps.add(`${link.id}|${other.link.id}`);
+            if (other.link.layer < link.layer) note('pin-through-layer', link.id, other.link.id, gap, at);
           }
         }
         // over the opening a link must stay over plates: sample its pin line
@@ -139,7 +146,34 @@ export function makeClearanceInspector(parts: ClearanceParts): ClearanceInspecto
     records() {
       return [...worst.values()].sort((x, y) => x.clearanceMm - y.clearanceMm);
     },
+    linkOverlaps() {
+      return [...overlaps].map((key) => {
+        const [pinLink, lineLink] = key.split('|') as [string, string];
+        return { pinLink, lineLink };
+      });
+    },
   };
+}
+
+/**
+ * An order of the links, bottom layer first, in which no link's plate pin passes through the layer of a link whose pin
+ * line it crosses (each overlap asks for the pin's link below the other): a topological order (Kahn's algorithm),
+ * keeping the given order where it is free. Null when the overlaps go both ways round (no order avoids them).
+ */
+export function linkLayerOrder(
+  ids: readonly string[],
+  overlaps: readonly { readonly pinLink: string; readonly lineLink: string }[],
+): string[] | null {
+  const below = new Map(ids.map((id) => [id, new Set<string>()] as const));
+  for (const o of overlaps) below.get(o.lineLink)?.add(o.pinLink);
+  const order: string[] = [];
+  const left = [...ids];
+  while (left.length > 0) {
+    const k = left.findIndex((id) => [...below.get(id)!].every((b) => order.includes(b)));
+    if (k < 0) return null;
+    order.push(left.splice(k, 1)[0]!);
+  }
+  return order;
 }
 
 /**

@@ -3,6 +3,7 @@ import type { BodyPose } from '../../src/kinematics/index.js';
 import {
   type ClearanceParts,
   collisionDefects,
+  linkLayerOrder,
   makeClearanceInspector,
   type MotionPlace,
 } from '../../src/mechanise/index.js';
@@ -138,5 +139,54 @@ describe('makeClearanceInspector', () => {
     // (its die-body pin at (5, 28) is inside the plate too: a second collision)
     const defects = collisionDefects(inspector.records());
     expect(defects.filter((d) => /over the melt channel/.test(d.message))).toHaveLength(1);
+  });
+});
+
+describe('linkLayerOrder', () => {
+  it('puts a link whose pin crosses another link below it, keeping the given order where free (Kahn)', () => {
+    // topological sort of the "pin over line ⇒ below" relation (Kahn, Comm. ACM 5(11), 1962)
+    expect(linkLayerOrder(['link_1', 'link_2', 'link_3'], [{ pinLink: 'link_3', lineLink: 'link_1' }])).toEqual([
+      'link_2',
+      'link_3',
+      'link_1',
+    ]);
+    expect(linkLayerOrder(['link_1', 'link_2'], [])).toEqual(['link_1', 'link_2']);
+  });
+
+  it('has no order when two links each cross the other', () => {
+    expect(
+      linkLayerOrder(
+        ['link_1', 'link_2'],
+        [
+          { pinLink: 'link_1', lineLink: 'link_2' },
+          { pinLink: 'link_2', lineLink: 'link_1' },
+        ],
+      ),
+    ).toBeNull();
+  });
+
+  it('the inspector reports a pin over another link whatever their layers', () => {
+    // link_2's plate pin (end b at (10, 10)) lies on link_1's pin line x = 10: they overlap in plan view
+    const parts: ClearanceParts = {
+      plates: [],
+      links: [
+        { id: 'link_1', layer: 4, lengthMm: 30, bodyA: 'die_body', bodyB: 'plate_1' },
+        { id: 'link_2', layer: 5, lengthMm: 20, bodyA: 'die_body', bodyB: 'plate_2' },
+      ],
+      layerOf: new Map([
+        ['plate_1', 1],
+        ['plate_2', 2],
+      ]),
+      opening: far,
+      pinRadiusMm: 2,
+      steelMm: 5,
+    };
+    const inspector = makeClearanceInspector(parts);
+    inspector.inspect((id) => (id === 'link_1' ? { x: 10, y: 0, phi: deg(90) } : { x: -10, y: 10, phi: 0 }), at(0));
+    expect(inspector.linkOverlaps()).toEqual([{ pinLink: 'link_2', lineLink: 'link_1' }]);
+    // link_2 is above link_1, so its pin passes through link_1's layer: a collision as stacked
+    expect(collisionDefects(inspector.records()).map((d) => d.message)).toEqual([
+      expect.stringMatching(/^link_2 and link_1 overlap/),
+    ]);
   });
 });
