@@ -43,13 +43,8 @@ const leftHump = arcTop(0, 8, 20, 12, 26);
 const rightHump = arcTop(20, 12, 40, 8, 26);
 const doubleCrown = (x: number) => (x <= 20 ? leftHump(x) : rightHump(x));
 
-/**
- * The crowned edging strip: flat → single crown → double crown → flat. With links at least two pin holes and a
- * ligament long, no chain the planner tries is driven by one actuator, so its plan comes back `incomplete` with the
- * fewest actuators found; kept to show that answer.
- */
-const crowns = {
-  name: 'crowned-edging-strip',
+/** Process, limits, plates and actuators of both edging-strip scenarios (one actuator, a 1.5 m repeat). */
+const edgingStripSettings = {
   material: 'PVC-U',
   process: { line_speed_m_per_min: 2.0, die_temperature_c: 190 },
   limits: {
@@ -63,6 +58,16 @@ const crowns = {
   actuators: { count: 1, max_speed_deg_per_s: 60, max_accel_deg_per_s2: 300 },
   time_step_s: 0.05,
   repeat_length_m: 1.5,
+};
+
+/**
+ * The crowned edging strip: flat → single crown → double crown → flat. With links at least two pin holes and a
+ * ligament long, no chain the planner tries is driven by one actuator, so its plan comes back `incomplete` with the
+ * fewest actuators found; kept to show that answer.
+ */
+const crowns = {
+  name: 'crowned-edging-strip',
+  ...edgingStripSettings,
   moving_span: { start: [0, 8], end: [40, 8] },
   stations: [
     { position_m: 0.0, orifice: strip(flat) },
@@ -210,19 +215,7 @@ function roundRegion(r: { outer: P[]; holes: P[][] }): { outer: P[]; holes: P[][
 
 const demo = {
   name: 'edging-strip-demo',
-  material: 'PVC-U',
-  process: { line_speed_m_per_min: 2.0, die_temperature_c: 190 },
-  limits: {
-    draw_down: { min: 1.0, max: 1.3 },
-    min_wall_mm: 1.5,
-    max_wall_ratio: 2.5,
-    fit_tolerance_mm: 0.2,
-    max_plates: 24,
-  },
-  plates: { pivot_hole_diameter_mm: 4.0, ligament_mm: 3.0, thickness_mm: 6.0, depth_mm: 25.0 },
-  actuators: { count: 1, max_speed_deg_per_s: 60, max_accel_deg_per_s2: 300 },
-  time_step_s: 0.05,
-  repeat_length_m: 1.5,
+  ...edgingStripSettings,
   stations: rollingRidgeStations().map((orifice, i) => ({ position_m: 0.375 * i, orifice })),
 };
 
