@@ -147,12 +147,15 @@ export function successFindings(
     const [x0, x1] = body.pinSpanMm;
     const end = Math.min(link.pinB[0] - x0, x1 - link.pinB[0]);
     if (end < context.clearanceMm) {
+      // the hole would break out of the plate as drawn (closer than its radius) or leave too thin a ligament: the
+      // plate carries a boss of e round the pin there, which the clearance checks include
+      const breaksOut = end < context.shape.holeRadiusMm;
       findings.push({
         code: 'LINK_PIN_NEAR_PLATE_END',
-        severity: 'info',
+        severity: breaksOut ? 'warning' : 'info',
         value: end,
         limit: context.clearanceMm,
-        message: `${link.id}'s pin on ${link.bodyB} is ${fmt(end)} mm from the plate's side edge, less than a hole and ligament (${fmt(context.clearanceMm)} mm): widen the plate there (behind the pivot line, clear of the melt).`,
+        message: `${link.id}'s pin on ${link.bodyB} is ${fmt(end)} mm from the plate's side edge, less than a hole and ligament (${fmt(context.clearanceMm)} mm)${breaksOut ? ': its hole would break out of the plate as drawn' : ''}. The plate must be widened there by a boss of ${fmt(context.clearanceMm)} mm round the pin (behind the pivot line, clear of the melt); the clearance checks include that boss.`,
       });
     }
   }
@@ -275,7 +278,7 @@ export function failureFindings(
       code: 'SEARCH_BUDGET_EXHAUSTED',
       severity: 'warning',
       value: search.assemblies + search.partialTraces,
-      message: `The search stopped at its budget (${search.partialTraces} partial and ${search.assemblies} complete mechanisms driven); raising maxPartialTraces or maxAssemblies may find one.`,
+      message: `The search stopped at its budget (${search.partialTraces} partial and ${search.assemblies} complete mechanisms driven) before it had tried every combination of links: a mechanism may exist that it did not reach. Another actuator, other link length limits (links.min_length_mm, links.max_length_mm) or another plate count (limits.plate_count) changes what it tries.`,
     });
   }
   if (smallest !== null) {

@@ -179,7 +179,8 @@ export function linkLayerOrder(
 /**
  * The parts of a mechanism built on a fitted chain, for `makeClearanceInspector`: each rigid plate's outline as the
  * fit draws it (straight melt edge, pivot fans) with 0.2 mm chords, taken into the plate's own frame at the first
- * distinct position; the links of `mechanism` with their layers. Telescoping halves and slider blocks carry no
+ * distinct position, plus a boss of radius e round every link pin that is closer than e to the plate's edge (the plate
+ * is widened there); the links of `mechanism` with their layers. Telescoping halves and slider blocks carry no
  * outline here.
  */
 export function clearancePartsOf(
@@ -201,6 +202,18 @@ export function clearancePartsOf(
     const pose = stations.poses[first]![m]!;
     plates.push({ id: b.id, layer: b.layer, outline: outline.outer.map((p) => toLocal(pose, p)) });
   });
+  // a link pin near a plate's side edge sits in a boss the plate is widened by (steel of e round the pin): the boss
+  // moves with the plate and needs room like the rest of it
+  for (const l of links) {
+    for (const [body, pin] of [
+      [l.bodyB, l.pinB],
+      [l.bodyA, l.pinA],
+    ] as const) {
+      const plate = plates.find((p) => p.id === body);
+      if (!plate || signedDistance(pin, plate.outline) < -shape.edgeOffsetMm) continue;
+      plates.push({ id: body, layer: plate.layer, outline: boss(pin, shape.edgeOffsetMm) });
+    }
+  }
   const layerOf = new Map(mechanism.bodies.map((b) => [b.id, b.layer] as const));
   return {
     plates,
@@ -278,6 +291,14 @@ export function ringGap(a: Ring, b: Ring): number {
     }
   }
   return depth > 0 ? -depth : gap;
+}
+
+/** A disc of radius r round c as a 24-gon (chord error under 1 % of r), counter-clockwise. */
+function boss(c: Point, r: number): Ring {
+  return Array.from({ length: 24 }, (_, k): Point => {
+    const a = (2 * Math.PI * k) / 24;
+    return [c[0] + r * Math.cos(a), c[1] + r * Math.sin(a)];
+  });
 }
 
 /** A die-body point in a body's own frame. */
