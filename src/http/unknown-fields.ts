@@ -5,7 +5,7 @@ import { formatFieldPath } from './field-path.js';
 /** The parts of a zod schema this walk looks into (zod 4 internals exposed on every schema). */
 interface SchemaLike {
   readonly def: { readonly type: string };
-  readonly shape?: Record<string, SchemaLike>;
+  readonly shape?: Readonly<Record<string, SchemaLike>>;
   readonly element?: SchemaLike;
   unwrap?: () => SchemaLike;
 }
@@ -13,7 +13,9 @@ interface SchemaLike {
 /**
  * Fields of a request body that the schema does not know (zod drops them silently). A typo such as `min_wall` for
  * `min_wall_mm` would otherwise fall back to the default without a word, so each becomes a warning with its path.
- * Walks objects, optional wrappers and arrays; stops at anything else.
+ * Walks objects, optional wrappers and arrays; stops at anything else. Safe for any key: a key is known only when the
+ * schema's shape owns it (`Object.hasOwn`), so names of built-in object properties (`constructor`, `toString`,
+ * `__proto__`, `hasOwnProperty`) are reported like any other unknown field, at any depth.
  */
 export function unknownFields(body: unknown, schema: z.ZodType): Finding[] {
   const out: Finding[] = [];
@@ -27,9 +29,11 @@ export function unknownFields(body: unknown, schema: z.ZodType): Finding[] {
       return;
     }
     if (node.def.type !== 'object' || !node.shape || value === null || typeof value !== 'object') return;
-    for (const [key, child] of Object.entries(value as Record<string, unknown>)) {
-      const known = node.shape[key];
-      if (known) walk(child, known, [...path, key]);
+    const shape = node.shape;
+    // Object.entries reads own values only, so even an own `__proto__` key yields its own value
+    for (const [key, child] of Object.entries(value)) {
+      const known = Object.hasOwn(shape, key) ? shape[key] : undefined;
+      if (known?.def) walk(child, known, [...path, key]);
       else {
         const where = formatFieldPath([...path, key]);
         out.push({
