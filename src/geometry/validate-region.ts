@@ -94,6 +94,19 @@ function onOneLine(pts: readonly Point[], eps: number): boolean {
   return pts.every((p) => lineDistance(p, p0, far) <= eps);
 }
 
+/** Mean width of a ring, mm: twice its enclosed area over its perimeter (w for a long strip of width w). */
+function meanWidth(pts: readonly Point[]): number {
+  let twiceArea = 0;
+  let perimeter = 0;
+  for (let i = 0; i < pts.length; i++) {
+    const a = pts[i]!;
+    const b = pts[(i + 1) % pts.length]!;
+    twiceArea += a[0] * b[1] - b[0] * a[1];
+    perimeter += Math.hypot(b[0] - a[0], b[1] - a[1]);
+  }
+  return perimeter > 0 ? Math.abs(twiceArea) / perimeter : 0;
+}
+
 function lineDistance(p: Point, a: Point, b: Point): number {
   const dx = b[0] - a[0];
   const dy = b[1] - a[1];
@@ -106,7 +119,8 @@ function lineDistance(p: Point, a: Point, b: Point): number {
  * not faults).
  *
  * Checks, per ring: every coordinate finite; at least three distinct points (closer than `tol.lengthMm` counts as the
- * same); some area (not every point within `tol.lengthMm` of one straight line); no two edges crossing or touching
+ * same); some area (not every point within `tol.lengthMm` of one straight line, and a mean width 2A/P above
+ * `tol.lengthMm`, so a speck or a sliver is refused like a line); no two edges crossing or touching
  * (within `tol.lengthMm`), including an edge folding back over its neighbour. Between rings: every hole strictly
  * inside the outer ring, and holes neither crossing, touching nor nested (one fault per pair of rings). Segment pairs
  * are found by a sort-and-sweep along x, so a profile of a few thousand vertices checks in tens of milliseconds.
@@ -231,6 +245,21 @@ export function validateRegion(region: Region, tol: Tolerances): RegionFault[] {
       });
     }
   });
+
+  // A ring that does not cross itself but is a speck or a sliver encloses as good as nothing (a crossing ring's net
+  // area may vanish, e.g. a bow-tie, so it is told by its crossing instead).
+  const crossed = new Set(faults.filter((f) => f.kind === 'self-intersection').map((f) => f.ring));
+  for (const r of usable) {
+    if (crossed.has(r.id)) continue;
+    const width = meanWidth(r.pts);
+    if (width > eps) continue;
+    faults.push({
+      kind: 'zero-area',
+      ring: r.id,
+      at: r.pts[0]!,
+      message: `${capitalise(ringName(r.id))} encloses next to no area (mean width ${width.toExponential(1)} mm), starting near ${fmt(r.pts[0]!)}.`,
+    });
+  }
 
   // Rings that neither cross nor touch are either nested or apart: one vertex tells which.
   const outer = usable[0]?.id === 'outer' ? usable[0] : undefined;

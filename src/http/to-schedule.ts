@@ -1,5 +1,5 @@
 import { MATERIAL_PRESETS, type Schedule, type Station } from '../domain/index.js';
-import { normalizeRegion, type Point, type Region, validateRegion } from '../geometry/index.js';
+import { normalizeRegion, normalizeRing, type Point, type Region, validateRegion } from '../geometry/index.js';
 import { DEFAULT_TOLERANCES, toRadians } from '../numeric/index.js';
 import { formatFieldPath } from './field-path.js';
 import type { ScheduleWireValue } from './schedule-schema.js';
@@ -72,8 +72,20 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
     const path = ['stations', i, 'orifice'] as const;
     const raw: Region = { outer: s.orifice.outer as Point[], holes: (s.orifice.holes ?? []) as Point[][] };
     totalVertices += raw.outer.length + raw.holes.reduce((n, h) => n + h.length, 0);
+    // The rings as sent are judged first: normalising drops folded-back spikes and collapsed holes, which would
+    // otherwise pass unseen; the normalised region is judged again for anything the clean-up itself leaves.
     const region = normalizeRegion(raw, DEFAULT_TOLERANCES);
-    const faults = validateRegion(region, DEFAULT_TOLERANCES);
+    const asSent = validateRegion(raw, DEFAULT_TOLERANCES);
+    const faults = asSent.length > 0 ? asSent : validateRegion(region, DEFAULT_TOLERANCES);
+    if (faults.length === 0 && region.holes.length < raw.holes.length) {
+      raw.holes.forEach((hole, h) => {
+        if (normalizeRing(hole, DEFAULT_TOLERANCES, 'cw').length >= 3) return;
+        problems.push({
+          path: formatFieldPath([...path, 'holes', h]),
+          message: `Hole ${h} encloses no area once repeated and collinear points are dropped; remove it or draw it as a closed outline.`,
+        });
+      });
+    }
     for (const fault of faults) {
       const ringPath = fault.ring === 'outer' ? [...path, 'outer'] : [...path, 'holes', fault.ring];
       problems.push({ path: formatFieldPath(ringPath), message: fault.message });
