@@ -138,7 +138,8 @@ describe('POST /v1/checks', () => {
     expect(paths).toContain('process.line_speed_m_per_min');
     expect(paths).toContain('stations[1].position_m');
     const speed = res.body.details.find((d: { path: string }) => d.path === 'process.line_speed_m_per_min');
-    expect(speed.message).toMatch(/greater than zero/);
+    // range from FIELD_RANGES (common practice, no source)
+    expect(speed.message).toMatch(/line_speed_m_per_min must lie within 0.01–200 m\/min/);
   });
 
   it('rejects a point with a missing coordinate', async () => {
