@@ -1,6 +1,7 @@
 import type { Caution, Finding, Schedule } from '../domain/index.js';
 import {
   type BoundingBox,
+  boundingBox,
   findThinWalls,
   measureWalls,
   type Point,
@@ -50,6 +51,7 @@ export function checkSchedule(schedule: Schedule): ScheduleCheck {
     const region = station.orifice;
     const walls = measureWalls(region, tol);
     const thin = findThinWalls(region, schedule.limits.minWallMm, tol);
+    const box = boundingBox(region.outer);
     return {
       areaMm2: regionArea(region),
       perimeterMm: regionPerimeter(region),
@@ -58,6 +60,7 @@ export function checkSchedule(schedule: Schedule): ScheduleCheck {
       minWallAt: walls.minAt,
       maxWallMm: walls.maxWallMm,
       maxWallAt: walls.maxAt,
+      extentMm: Math.max(box.maxX - box.minX, box.maxY - box.minY),
       thinWalls: thin.map((t) => ({ centroid: t.centroid, areaMm2: t.areaMm2, bbox: t.bbox })),
     };
   });

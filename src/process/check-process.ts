@@ -3,6 +3,8 @@ import type { Finding, Schedule } from '../domain/index.js';
 import { MATERIAL_PRESETS } from '../domain/index.js';
 import { areaDrawDownRatio, pullerSpeedForDrawDown, throughputForDrawDown, velocityDrawRatio } from './draw-down.js';
 import { meltSpeedMPerS, productAreaMm2 } from './mass-balance.js';
+import { messageNumber as fmt, ratioText } from './message-number.js';
+import { fitToleranceFinding, PLAUSIBLE, scaleFindings } from './plausibility-findings.js';
 import { slitFlowRatioAtEqualPressure, slitPressureDropPa, slitPressureRatioAtEqualFlow } from './slit-flow.js';
 
 /** What geometry measured on one station, the input of the process checks. */
@@ -12,6 +14,8 @@ export interface StationMeasures {
   readonly minWallMm: number;
   readonly maxWallMm: number;
   readonly minWallAt: Point;
+  /** Longer side of the orifice's bounding box, mm (for the scale plausibility check). */
+  readonly extentMm: number;
   /** Pieces thinner than the schedule's minimum wall, with their centroids (mm, die-body frame). */
   readonly thinWalls: readonly { readonly centroid: Point; readonly areaMm2: number }[];
 }
@@ -56,6 +60,12 @@ const PA_PER_BAR = 1e5;
 const HIGH_LAND_PRESSURE_BAR = 350;
 /** Pressure swing between stations worth a warning: common practice, no source. */
 const PRESSURE_SWING_RATIO = 1.5;
+/**
+ * Largest flow ratio per width, thickest over thinnest wall at equal pressure and land, before the die needs
+ * balancing (common practice, no source): beyond a few-fold the thick wall outruns the thin one and the product bows
+ * or tears unless land lengths or restrictors even the flow out.
+ */
+export const FLOW_IMBALANCE_LIMIT = 5;
 
 /**
  * Mass balance, draw-down, slit-flow balance and pressure per station, with findings. Throughput is the schedule's,
@@ -72,11 +82,19 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     p.throughputKgPerS ??
     (first ? throughputForDrawDown(first.areaMm2, targetDrawDown, p.solidDensityKgPerM3, p.lineSpeedMPerS) : 0);
   const productArea = productAreaMm2(throughputKgPerS, p.solidDensityKgPerM3, p.lineSpeedMPerS);
-  const findings: Finding[] = [...materialFindings(schedule)];
+  const scale = scaleFindings(schedule, measures);
+  // A station drawn at the wrong scale gets its scale finding only: walls, draw-down and pressure figured from it
+  // would bury the one message that matters (the scale finding says so).
+  const misScaled = new Set(scale.map((f) => f.station));
+  const findings: Finding[] = [...materialFindings(schedule), ...scale];
+  const thinnest = Math.min(...measures.filter((_, i) => !misScaled.has(i)).map((m) => m.minWallMm));
+  const coarse = Number.isFinite(thinnest) ? fitToleranceFinding(schedule, thinnest) : null;
+  if (coarse) findings.push(coarse);
 
   const stations = measures.map((m, i): StationProcess => {
     const station = schedule.stations[i]!;
     const at = { station: i, positionM: station.positionM };
+    const own: Finding[] = [];
     const adr = areaDrawDownRatio(m.areaMm2, productArea);
     const equivalentGapMm = (2 * m.areaMm2) / m.perimeterMm;
     const widthMm = m.perimeterMm / 2;
@@ -90,7 +108,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
 
     if (m.minWallMm < limits.minWallMm) {
       const where = m.thinWalls[0]?.centroid ?? m.minWallAt;
-      findings.push({
+      own.push({
         code: 'THIN_WALL',
         severity: 'error',
         ...at,
@@ -101,18 +119,28 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
       });
     }
     if (wallRatio > limits.maxWallRatio) {
-      findings.push({
+      own.push({
         code: 'WALL_RATIO',
         severity: 'warning',
         ...at,
         value: wallRatio,
         limit: limits.maxWallRatio,
-        message: `Thickest wall ${fmt(m.maxWallMm)} mm is ${fmt(wallRatio)}× the thinnest ${fmt(m.minWallMm)} mm; at equal pressure the thick wall flows about ${fmt(flowImbalanceRatio)}× faster per width (power-law slit, n ${fmt(p.powerLawN)}). Balance the die land or even out the walls.`,
+        message: `Thickest wall ${fmt(m.maxWallMm)} mm is ${fmt(wallRatio)}× the thinnest ${fmt(m.minWallMm)} mm, above the ${fmt(limits.maxWallRatio)} limit (limits.max_wall_ratio; the default 2.5 is common practice, no source). Even out the walls, or balance the die land for the flow difference this causes.`,
+      });
+    }
+    if (flowImbalanceRatio > FLOW_IMBALANCE_LIMIT) {
+      own.push({
+        code: 'FLOW_IMBALANCE',
+        severity: 'warning',
+        ...at,
+        value: flowImbalanceRatio,
+        limit: FLOW_IMBALANCE_LIMIT,
+        message: `At equal pressure and land length the thickest wall (${fmt(m.maxWallMm)} mm) flows ${ratioText(flowImbalanceRatio)} faster per width than the thinnest (${fmt(m.minWallMm)} mm) (power-law slit, n ${fmt(p.powerLawN)}; limit ${FLOW_IMBALANCE_LIMIT}×, common practice, no source). Balancing by land length alone would need the thick wall's land ${ratioText(wallPressureRatio)} longer than the thin wall's; even out the walls or add flow restrictors.`,
       });
     }
     if (adr < limits.drawDownMin || adr > limits.drawDownMax) {
       const low = adr < limits.drawDownMin;
-      findings.push({
+      own.push({
         code: low ? 'DRAW_DOWN_LOW' : 'DRAW_DOWN_HIGH',
         severity: 'warning',
         ...at,
@@ -121,8 +149,17 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
         message: `At the nominal line speed the area draw-down ratio is ${fmt(adr)}, ${low ? 'below' : 'above'} the ${fmt(low ? limits.drawDownMin : limits.drawDownMax)} limit. The puller-speed table holds ${fmt(targetDrawDown)} by running at ${fmt(pullerSpeed * 60)} m/min here; otherwise change the orifice area or the throughput.`,
       });
     }
-    if (landPressureBar > HIGH_LAND_PRESSURE_BAR) {
-      findings.push({
+    if (landPressureBar > PLAUSIBLE.maxLandPressureBar) {
+      own.push({
+        code: 'LAND_PRESSURE_OUT_OF_RANGE',
+        severity: 'warning',
+        ...at,
+        value: landPressureBar,
+        limit: PLAUSIBLE.maxLandPressureBar,
+        message: `The land-pressure estimate comes out above ${PLAUSIBLE.maxLandPressureBar} bar, beyond any extruder, so it is outside the range of its model (isothermal power-law slit at the equivalent gap ${fmt(equivalentGapMm)} mm) and not a pressure to quote. Check the orifice's scale, the throughput, the land length and the power-law constants; if they are right, this orifice cannot run at this output.`,
+      });
+    } else if (landPressureBar > HIGH_LAND_PRESSURE_BAR) {
+      own.push({
         code: 'HIGH_LAND_PRESSURE',
         severity: 'warning',
         ...at,
@@ -131,6 +168,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
         message: `The die land alone needs about ${fmt(landPressureBar)} bar at this throughput (equivalent gap ${fmt(equivalentGapMm)} mm, land ${fmt(p.dieLandLengthMm)} mm), above the usual 350 bar. Check the extruder's pressure rating and rupture disc, shorten the land or lower the throughput.`,
       });
     }
+    if (!misScaled.has(i)) findings.push(...own);
     return {
       productAreaMm2: productArea,
       drawDownRatio: adr,
@@ -145,7 +183,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     };
   });
 
-  findings.push(...pressureSwingFindings(schedule, stations));
+  if (misScaled.size === 0) findings.push(...pressureSwingFindings(schedule, stations));
   return {
     throughputKgPerS,
     throughputFromFirstStation: p.throughputKgPerS === null,
@@ -173,7 +211,7 @@ function pressureSwingFindings(schedule: Schedule, stations: readonly StationPro
       positionM: schedule.stations[hi]!.positionM,
       value: ratio,
       limit: PRESSURE_SWING_RATIO,
-      message: `Die pressure at station ${hi} is about ${fmt(ratio)}× that at station ${lo} at constant output: closing the orifice raises pressure steeply. Make sure the pressure interlock and rupture disc cover the highest value, and ramp the motion slowly enough for the melt pump or screw control to follow.`,
+      message: `Die pressure at station ${hi} is ${ratioText(ratio)} that at station ${lo} at constant output: closing the orifice raises pressure steeply. Make sure the pressure interlock and rupture disc cover the highest value, and ramp the motion slowly enough for the melt pump or screw control to follow.`,
     },
   ];
 }
@@ -214,9 +252,4 @@ function materialFindings(schedule: Schedule): Finding[] {
     });
   }
   return findings;
-}
-
-/** Three significant decimals at most, for messages. */
-function fmt(x: number): string {
-  return Number.isFinite(x) ? String(Math.round(x * 1000) / 1000) : String(x);
 }

@@ -7,4 +7,12 @@ export {
   slitFlowRatioAtEqualPressure,
   slitPressureRatioAtEqualFlow,
 } from './slit-flow.js';
-export { type StationMeasures, type StationProcess, type ProcessCheck, checkProcess } from './check-process.js';
+export {
+  type StationMeasures,
+  type StationProcess,
+  type ProcessCheck,
+  checkProcess,
+  FLOW_IMBALANCE_LIMIT,
+} from './check-process.js';
+export { messageNumber, ratioText, RATIO_TEXT_CEILING } from './message-number.js';
+export { PLAUSIBLE, type StationScale, scaleFindings, fitToleranceFinding } from './plausibility-findings.js';

@@ -31,12 +31,15 @@ describe('draw ratios', () => {
     expect(areaDrawDownRatio(500, 400)).toBeCloseTo(1.25, 12);
   });
 
-  it('pullerSpeedForDrawDown gives back the line speed that throughputForDrawDown assumed', () => {
-    // mass balance both ways: ṁ = ρ_s (A/ADR) v
-    const q = throughputForDrawDown(320, 1.1, 1400, 2 / 60);
-    expect(q * 3600).toBeCloseTo(((1400 * 320e-6) / 1.1) * (2 / 60) * 3600, 12);
-    expect(pullerSpeedForDrawDown(q, 1400, 320, 1.1)).toBeCloseTo(2 / 60, 12);
-    // at constant output, twice the orifice area keeps the draw-down only with half the puller speed
-    expect(pullerSpeedForDrawDown(q, 1400, 640, 1.1)).toBeCloseTo(1 / 60, 12);
+  it('throughputForDrawDown(460 mm², ADR 1.15, PVC-U 1400 kg/m³, 3 m/min) is 100.8 kg/h', () => {
+    // worked by hand from DOMAIN.md §5: product area 460/1.15 = 400 mm²; ṁ = 1400 · 400e-6 · 0.05 = 0.028 kg/s
+    expect(throughputForDrawDown(460, 1.15, 1400, 0.05) * 3600).toBeCloseTo(100.8, 9);
+  });
+
+  it('pullerSpeedForDrawDown(100.8 kg/h, 1400 kg/m³, 460 mm², ADR 1.15) is 3 m/min; 920 mm² needs 1.5 m/min', () => {
+    // worked by hand: v = ṁ/(ρ·A/ADR) = 0.028/(1400 · 400e-6) = 0.05 m/s = 3 m/min; twice the orifice at the same
+    // output needs half the speed (0.028/(1400 · 800e-6) = 0.025 m/s)
+    expect(pullerSpeedForDrawDown(0.028, 1400, 460, 1.15) * 60).toBeCloseTo(3.0, 9);
+    expect(pullerSpeedForDrawDown(0.028, 1400, 920, 1.15) * 60).toBeCloseTo(1.5, 9);
   });
 });
