@@ -13,6 +13,12 @@ export const ERROR_CATALOGUE = Object.freeze({
     meaning: 'The request body is not valid JSON.',
     fix: 'Send a JSON document with `Content-Type: application/json`; check for trailing commas and unquoted names.',
   },
+  malformed_request: {
+    status: 400,
+    meaning:
+      'The request itself cannot be read: a URL with a broken percent-escape, or a body that does not match its Content-Length.',
+    fix: 'Percent-encode the URL properly (e.g. `%20`, not `%zz`) and let the HTTP client set Content-Length.',
+  },
   unsupported_media_type: {
     status: 415,
     meaning: 'The request body is not JSON.',
