@@ -58,9 +58,11 @@ export function toFindingWire(f: Finding): FindingOut {
     severity: f.severity,
     ...(f.station !== undefined ? { station: f.station } : {}),
     ...(f.positionM !== undefined ? { position_m: f.positionM } : {}),
-    ...(f.value !== undefined ? { value: sig(f.value) } : {}),
-    ...(f.limit !== undefined ? { limit: sig(f.limit) } : {}),
-    ...(f.at !== undefined ? { at_mm: pointMm(f.at) } : {}),
+    // value, limit and place are optional on the wire: one that is not a finite number is left out, never sent as
+    // NaN (which JSON cannot carry and the response schema refuses); the message still says what was found
+    ...(f.value !== undefined && Number.isFinite(f.value) ? { value: sig(f.value) } : {}),
+    ...(f.limit !== undefined && Number.isFinite(f.limit) ? { limit: sig(f.limit) } : {}),
+    ...(f.at !== undefined && Number.isFinite(f.at[0]) && Number.isFinite(f.at[1]) ? { at_mm: pointMm(f.at) } : {}),
     message: f.message,
   };
 }

@@ -3,6 +3,8 @@ import { checkSchedule } from '../../pipeline/index.js';
 import { CheckReportWire, ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { toCheckReport, toFindingWire } from '../to-check-report.js';
+import { errorBody } from '../error-catalogue.js';
+import { unreadableFigure } from '../readable-report.js';
 import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
 
 /** `POST /v1/checks`: measure every station and report process findings, with safety cautions. */
@@ -26,8 +28,25 @@ export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
       if (!schedule) return reply;
       const check = checkSchedule(schedule);
       request.log.info({ stations: check.stations.length, findings: check.findings.length }, 'schedule checked');
-      const report = toCheckReport(schedule, check);
-      return { ...report, findings: [...unknownScheduleFields(request).map(toFindingWire), ...report.findings] };
+      const mapped = toCheckReport(schedule, check);
+      const report = {
+        ...mapped,
+        findings: [...unknownScheduleFields(request).map(toFindingWire), ...mapped.findings],
+      };
+      const unreadable = unreadableFigure(report, CheckReportWire);
+      if (unreadable) {
+        request.log.warn({ unreadable }, 'check figure not finite');
+        return reply.code(400).send({
+          ...errorBody('invalid_schedule', 'The schedule gives figures that cannot be computed as finite numbers.', [
+            {
+              path: 'process',
+              message: `these process values and orifices give ${unreadable.path} that is not a finite number (${unreadable.problem}); bring the values nearer to common practice`,
+            },
+          ]),
+          request_id: request.id,
+        });
+      }
+      return report;
     },
   );
 };

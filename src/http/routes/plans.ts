@@ -7,7 +7,7 @@ import { errorBody } from '../error-catalogue.js';
 import { PlanAcceptedWire, PlanWire } from '../plan-schema.js';
 import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
-import { toPlanReport } from '../to-plan-report.js';
+import { readablePlan } from '../readable-plan-report.js';
 import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
 
 /**
@@ -42,12 +42,16 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
         const computed = planSchedule(schedule);
         const plan = { ...computed, findings: [...unknownScheduleFields(request), ...computed.findings] };
         const id = randomUUID();
-        store.put({ id, createdAt: now().toISOString(), schedule, plan });
+        // checked before it is stored: a plan that could not be written out is stored as failed, with the reason
+        const readable = readablePlan({ id, createdAt: now().toISOString(), schedule, plan });
+        if (readable.unreadable) request.log.warn({ plan: id, unreadable: readable.unreadable }, 'plan not finite');
+        store.put(readable.record);
+        const status = readable.record.plan.status;
         request.log.info(
-          { plan: id, status: plan.status, plates: plan.fit?.plateCount, ms: Math.round(performance.now() - started) },
+          { plan: id, status, plates: plan.fit?.plateCount, ms: Math.round(performance.now() - started) },
           'plan computed',
         );
-        return reply.code(202).header('location', `/v1/plans/${id}`).send({ id, status: plan.status });
+        return reply.code(202).header('location', `/v1/plans/${id}`).send({ id, status });
       },
     );
 
@@ -68,7 +72,10 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
             .code(404)
             .send({ ...errorBody('not_found', `No plan with id ${request.params.id}.`), request_id: request.id });
         }
-        return toPlanReport(record);
+        const readable = readablePlan(record);
+        if (readable.unreadable)
+          request.log.warn({ plan: record.id, unreadable: readable.unreadable }, 'plan not finite');
+        return readable.report;
       },
     );
   };
