@@ -88,7 +88,8 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
   const misScaled = new Set(scale.map((f) => f.station));
   const findings: Finding[] = [...materialFindings(schedule), ...scale];
   const thinnest = Math.min(...measures.filter((_, i) => !misScaled.has(i)).map((m) => m.minWallMm));
-  const coarse = Number.isFinite(thinnest) ? fitToleranceFinding(schedule, thinnest) : null;
+  // a wall measured as nothing is THIN_WALL's business; a tolerance against it says nothing more
+  const coarse = Number.isFinite(thinnest) && thinnest > 0 ? fitToleranceFinding(schedule, thinnest) : null;
   if (coarse) findings.push(coarse);
 
   const stations = measures.map((m, i): StationProcess => {

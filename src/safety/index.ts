@@ -1,1 +1,2 @@
 export { processCautions } from './process-cautions.js';
+export { type MaterialHazard, MATERIAL_HAZARDS } from './material-hazards.js';
