@@ -66,6 +66,12 @@ export async function buildApp(options: AppOptions) {
     loggerInstance: options.logger as FastifyBaseLogger,
     bodyLimit: WIRE_LIMITS.bodyBytes,
     requestTimeout: timeouts.requestMs,
+    // Node looks for overdue requests every connectionsCheckingInterval (30 s by default): check every second, or
+    // sooner when the timeout is shorter, so a slow client is let go close to requestTimeout, not up to 30 s later
+    http: {
+      connectionsCheckingInterval: Math.min(1000, timeouts.requestMs),
+      headersTimeout: Math.min(10_000, timeouts.requestMs),
+    },
     connectionTimeout: timeouts.connectionMs,
     keepAliveTimeout: timeouts.keepAliveMs,
     maxParamLength: MAX_PARAM_LENGTH,
