@@ -203,6 +203,46 @@ describe('validateRegion', () => {
     expect(faults.some((f) => f.kind === 'self-intersection')).toBe(true);
   });
 
+  it('validateRegion reports a hole folding back over its previous edge, as on an outer ring', () => {
+    const hole: Point[] = [
+      [2, 2],
+      [8, 2],
+      [5, 2],
+      [5, 6],
+    ];
+    const faults = validateRegion({ outer: rectangle(10, 10), holes: [hole] }, tol);
+    expect(faults.map((f) => [f.kind, f.ring])).toContainEqual(['self-intersection', 0]);
+  });
+
+  it('validateRegion reports a speck or a sliver (mean width 2A/P at most tol.lengthMm) as zero-area', () => {
+    // analytic: a right triangle of legs 2e-6 mm has 2A/P = 4e-12 / (2e-6 (2 + √2)) ≈ 5.9e-7 mm < 1e-6 mm
+    const speck: Point[] = [
+      [5, 5],
+      [5 + 2e-6, 5],
+      [5, 5 + 2e-6],
+    ];
+    const holeFaults = validateRegion({ outer: rectangle(10, 10), holes: [speck] }, tol);
+    expect(holeFaults.map((f) => [f.kind, f.ring])).toEqual([['zero-area', 0]]);
+    expect(holeFaults[0]!.message).toMatch(/^Hole 0 encloses next to no area/);
+    // analytic: a 10 mm sliver 0.2–1.2 µm wide has 2A/P = 2 · 7e-6 / 20 = 7e-7 mm, though one corner lies 1.2 µm
+    // (more than tol.lengthMm) off the line through the others, so it is not caught as points on one line
+    const sliver: Point[] = [
+      [0, 0],
+      [10, 0],
+      [10, 2e-7],
+      [0, 1.2e-6],
+    ];
+    expect(validateRegion({ outer: sliver, holes: [] }, tol).map((f) => f.kind)).toEqual(['zero-area']);
+    // a bow-tie's net area vanishes too, but it is told by its crossing, not as zero-area
+    const bowTie: Point[] = [
+      [0, 0],
+      [10, 10],
+      [10, 0],
+      [0, 10],
+    ];
+    expect(validateRegion({ outer: bowTie, holes: [] }, tol).map((f) => f.kind)).toEqual(['self-intersection']);
+  });
+
   it('validateRegion checks a 4000-vertex profile in well under a second', () => {
     const n = 4000;
     const wavy: Point[] = Array.from({ length: n }, (_, i) => {
