@@ -74,7 +74,7 @@ export async function buildApp(options: AppOptions) {
     },
     connectionTimeout: timeouts.connectionMs,
     keepAliveTimeout: timeouts.keepAliveMs,
-    maxParamLength: MAX_PARAM_LENGTH,
+    routerOptions: { maxParamLength: MAX_PARAM_LENGTH },
     // secure-json-parse's defaults, stated: a body with a __proto__ or constructor.prototype key is refused (400)
     onProtoPoisoning: 'error',
     onConstructorPoisoning: 'error',

@@ -3,6 +3,7 @@ import { normalizeRegion, normalizeRing, type Point, type Region, validateRegion
 import { DEFAULT_TOLERANCES, toRadians } from '../numeric/index.js';
 import { formatFieldPath } from './field-path.js';
 import type { ScheduleWireValue } from './schedule-schema.js';
+import { sig } from './wire-format.js';
 import { WIRE_LIMITS } from './wire-limits.js';
 
 /** One bad field: where it is and what is wrong, in words a process engineer reads. */
@@ -138,7 +139,7 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
   if (!(linkMin < linkMax)) {
     problems.push({
       path: wire.links?.max_length_mm !== undefined ? 'links.max_length_mm' : 'links.min_length_mm',
-      message: `the shortest link (${linkMin} mm) must be shorter than the longest (${linkMax} mm)`,
+      message: `the shortest link (${sig(linkMin)} mm) must be shorter than the longest (${sig(linkMax)} mm)`,
     });
   }
   if (problems.length > 0) return { ok: false, problems };
