@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/app.js';
-import { type Answer, brokenPromise, checkRequest, planRequest, type RequestCase } from './request-arbitraries.js';
+import { answer, brokenPromise, checkRequest, planRequest, type RequestCase } from './request-arbitraries.js';
 
 /**
  * Issue 9, "bad input never a 5xx", as a property over generated requests (tests/http/request-arbitraries.ts): valid
@@ -22,28 +22,6 @@ afterAll(async () => {
 
 const seed = Number(process.env.FC_SEED ?? 20261202);
 const scale = Number(process.env.FC_RUNS_SCALE ?? 1);
-
-/** Sends one case through the app (fastify's inject: same routing, parsing and serialisation as the socket). */
-export async function answer(server: App, c: RequestCase): Promise<Answer> {
-  const res = await server.inject({
-    method: 'POST',
-    url: c.url,
-    headers: { 'content-type': 'application/json' },
-    payload: c.text,
-  });
-  const body = parse(res.body);
-  if (res.statusCode !== 202) return { status: res.statusCode, body };
-  const back = await server.inject({ method: 'GET', url: res.headers.location as string });
-  return { status: res.statusCode, body, readBack: { status: back.statusCode, body: parse(back.body) } };
-}
-
-function parse(text: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch {
-    return text;
-  }
-}
 
 const property = (arbitrary: fc.Arbitrary<RequestCase>) =>
   fc.asyncProperty(arbitrary, async (c) => {

@@ -5,9 +5,11 @@
  * degenerate rings, bodies that are not schedules at all. Not a test file itself.
  */
 import fc from 'fast-check';
+import type { buildApp } from '../../src/app.js';
 import { ERROR_CATALOGUE } from '../../src/http/error-catalogue.js';
 import { FIELD_RANGES, type FieldRange } from '../../src/http/schedule-schema.js';
 
+type App = Awaited<ReturnType<typeof buildApp>>;
 type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
 type Path = (string | number)[];
 
@@ -218,8 +220,9 @@ function square10(): [number, number][] {
 type Breakage = (body: Json) => { body: Json; note: string; unknownPath?: string };
 
 const objectPaths = (v: Json, path: Path = [], out: Path[] = []): Path[] => {
-  if (Array.isArray(v)) v.forEach((x, i) => objectPaths(x, [...path, i], out));
-  else if (v !== null && typeof v === 'object') {
+  if (Array.isArray(v)) {
+    for (const [i, x] of v.entries()) objectPaths(x, [...path, i], out);
+  } else if (v !== null && typeof v === 'object') {
     out.push(path);
     for (const [k, x] of Object.entries(v)) objectPaths(x, [...path, k], out);
   }
@@ -227,8 +230,10 @@ const objectPaths = (v: Json, path: Path = [], out: Path[] = []): Path[] => {
 };
 const allPaths = (v: Json, path: Path = [], out: Path[] = []): Path[] => {
   if (path.length > 0) out.push(path);
-  if (Array.isArray(v)) v.forEach((x, i) => allPaths(x, [...path, i], out));
-  else if (v !== null && typeof v === 'object') for (const [k, x] of Object.entries(v)) allPaths(x, [...path, k], out);
+  if (Array.isArray(v)) {
+    for (const [i, x] of v.entries()) allPaths(x, [...path, i], out);
+  } else if (v !== null && typeof v === 'object')
+    for (const [k, x] of Object.entries(v)) allPaths(x, [...path, k], out);
   return out;
 };
 const ringPaths = (v: Json): Path[] =>
@@ -550,4 +555,26 @@ export function brokenPromise(c: RequestCase, a: Answer): string | null {
   const status = (a.readBack.body as { status?: string }).status;
   if (!['done', 'incomplete', 'failed'].includes(status ?? '')) return `the plan read back with status ${status}`;
   return null;
+}
+
+/** Sends one case through the app (fastify's inject: same routing, parsing and serialisation as the socket). */
+export async function answer(server: Pick<App, 'inject'>, c: RequestCase): Promise<Answer> {
+  const res = await server.inject({
+    method: 'POST',
+    url: c.url,
+    headers: { 'content-type': 'application/json' },
+    payload: c.text,
+  });
+  const body = parse(res.body);
+  if (res.statusCode !== 202) return { status: res.statusCode, body };
+  const back = await server.inject({ method: 'GET', url: res.headers.location as string });
+  return { status: res.statusCode, body, readBack: { status: back.statusCode, body: parse(back.body) } };
+}
+
+function parse(text: string): unknown {
+  try {
+    return JSON.parse(text);
+  } catch {
+    return text;
+  }
 }
