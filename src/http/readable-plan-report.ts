@@ -1,5 +1,5 @@
 import type { PlanRecord } from '../store/index.js';
-import { type PlanReport, PlanWire } from './plan-schema.js';
+import type { PlanReport } from './plan-schema.js';
 import { type UnreadableFigure, unreadableFigure } from './readable-report.js';
 import { toPlanReport } from './to-plan-report.js';
 
@@ -12,8 +12,8 @@ export interface ReadablePlan {
 }
 
 /**
- * The plan's wire report, checked against the response schema. A plan with a figure that is not a finite number (or
- * that cannot be written out at all) becomes a `failed` plan whose `error` says where, keeping its findings and
+ * The plan's wire report, checked for numbers that are not finite. A plan with such a figure (or that cannot be
+ * written out at all) becomes a `failed` plan whose `error` says where, keeping its findings and
  * cautions, so that a stored plan is always readable: `POST /v1/plans` stores the returned record and
  * `GET /v1/plans/{id}` answers with the returned report, never with a 500.
  */
@@ -50,5 +50,5 @@ function tryReport(record: PlanRecord): PlanReport | UnreadableFigure {
   } catch (err) {
     return { path: '(plan)', problem: err instanceof Error ? err.message : String(err) };
   }
-  return unreadableFigure(report, PlanWire) ?? report;
+  return unreadableFigure(report) ?? report;
 }

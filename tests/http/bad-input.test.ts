@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/app.js';
 import { ERROR_CATALOGUE } from '../../src/http/error-catalogue.js';
 import { readablePlan } from '../../src/http/readable-plan-report.js';
+import { unreadableFigure } from '../../src/http/readable-report.js';
 import { FIELD_RANGES } from '../../src/http/schedule-schema.js';
 import { toFindingWire } from '../../src/http/to-check-report.js';
 import { MemoryPlanStore } from '../../src/store/index.js';
@@ -177,12 +178,20 @@ describe('a stored plan is always readable', () => {
     const res = await request(app.server).get('/v1/plans/poisoned-plan');
     expect(res.status).toBe(200);
     expect(res.body.status).toBe('failed');
-    expect(res.body.error).toMatch(/chain\.plate_lengths_mm\[0\] is not a finite number/);
+    expect(res.body.error).toMatch(/chain\.plate_lengths_mm\[0\] is not a finite number \(NaN\)/);
     expect(res.body.findings).toEqual([{ code: 'X', severity: 'warning', message: 'x' }]);
 
     const checked = readablePlan(poisoned);
     expect(checked.unreadable?.path).toBe('chain.plate_lengths_mm[0]');
     expect(checked.record.plan.status).toBe('failed');
+  });
+
+  it('unreadableFigure finds the first number that is not finite, with its path (RFC 8259 has no NaN)', () => {
+    expect(unreadableFigure({ a: [1, { b: Number.NaN }], c: Number.POSITIVE_INFINITY })).toEqual({
+      path: 'a[1].b',
+      problem: 'NaN',
+    });
+    expect(unreadableFigure({ a: [1, { b: 2 }], c: null, d: 'NaN' })).toBeNull();
   });
 
   it('toFindingWire leaves out a value, limit or place that is not a finite number', () => {

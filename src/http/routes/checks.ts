@@ -33,7 +33,7 @@ export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
         ...mapped,
         findings: [...unknownScheduleFields(request).map(toFindingWire), ...mapped.findings],
       };
-      const unreadable = unreadableFigure(report, CheckReportWire);
+      const unreadable = unreadableFigure(report);
       if (unreadable) {
         request.log.warn({ unreadable }, 'check figure not finite');
         return reply.code(400).send({
