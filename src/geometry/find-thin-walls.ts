@@ -6,6 +6,8 @@ import { differenceRegions } from './difference-regions.js';
 import { normalizeRegion } from './normalize-region.js';
 import { offsetRegions } from './offset-regions.js';
 import { regionArea } from './region-area.js';
+import { minWallOfSurvey } from './measure-min-wall.js';
+import { surveyWalls } from './survey-walls.js';
 import { regionCentroid } from './region-centroid.js';
 import type { Point, Region } from './types.js';
 import { resolveWallOptions, type WallOptions } from './wall-options.js';
@@ -54,7 +56,8 @@ export function thinWallPieces(prepared: PreparedWallRegion, t: number, o: WallO
  * at the meeting point of its outer edges. Pieces smaller than `minPieceAreaMm2` (default 0.001 mm²) are dropped too.
  * Before subtracting, the opening is grown by `noiseMarginMm` (default 0.005 mm) so clipper's arc chords and 1e-4 mm
  * grid leave no hairlines along sound walls. Pieces come largest first. Rings are normalised first; the region should
- * be valid (`validateRegion`).
+ * be valid (`validateRegion`). When the thinnest wall measured across (`measureMinWall`) is at least `minWallMm`, there
+ * is no thin wall and the opening is skipped: the answer is then `[]` at near-linear cost.
  *
  * @throws RangeError when `minWallMm` is not a positive finite number, or an option is out of range.
  */
@@ -68,5 +71,10 @@ export function findThinWalls(
     throw new RangeError('findThinWalls: minWallMm must be a positive number');
   }
   const o = resolveWallOptions(options);
-  return thinWallPieces(prepareWallRegion(normalizeRegion(region, tol)), minWallMm, o);
+  const normalized = normalizeRegion(region, tol);
+  // The opening costs seconds on profiles of thousands of vertices; the survey (near-linear) rules most of them out.
+  if (normalized.outer.length >= 3 && regionArea(normalized) > tol.lengthMm * tol.lengthMm) {
+    if (!(minWallOfSurvey(surveyWalls(normalized, tol, o), o).minWallMm < minWallMm)) return [];
+  }
+  return thinWallPieces(prepareWallRegion(normalized), minWallMm, o);
 }

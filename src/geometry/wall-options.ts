@@ -1,6 +1,7 @@
 /**
- * Settings for the wall-thickness measurements (`maxInscribedCircle`, `findThinWalls`, `measureMinWall`,
- * `measureWalls`); every field has a default fitted to extrusion profiles of 1–500 mm with walls of 0.3 mm and up.
+ * Settings for the wall-thickness measurements (`maxInscribedCircle`, `measureMinWall`, `measureWalls` by medial discs
+ * and normal chords; `findThinWalls` by morphological opening); every field has a default fitted to extrusion profiles
+ * of 1–500 mm with walls of 0.3 mm and up.
  */
 export interface WallOptions {
   /** Chord-to-arc gap allowed on the round joins of the inward offsets that bracket the largest inscribed circle, mm.
@@ -26,11 +27,22 @@ export interface WallOptions {
    * it is a real thin wall. Covers fillets of a few mm radius drawn with 10–15° segments and chamfers up to this size.
    * @default 1 */
   readonly cornerDetailMm: number;
-  /** Bisection stops when the largest inscribed radius is bracketed this tightly, mm. @default 0.002 */
+  /** Boundary samples for the wall measurement (`measureWalls`) are about this far apart along every segment (each
+   * segment at least once), mm. @default 0.25 */
+  readonly sampleSpacingMm: number;
+  /** At most about this many boundary samples: on longer perimeters the spacing grows to perimeter / this, so the
+   * cost stays bounded (the refinement keeps the result exact on straight and circular walls). @default 20000 */
+  readonly maxSamples: number;
+  /** Two faces are the two sides of one wall when their inward normals are at least π − this apart, radians: walls
+   * tapering by up to this much are measured across, while faces meeting at a wider convex corner (a 90° corner, the
+   * end face of a strip) never count as a wall. @default π/4 */
+  readonly facingAngleRad: number;
+  /** A medial disc is computed at a boundary sample only when half its chord (a bound on the disc) exceeds the largest
+   * disc found by more than this, so the thickest wall is within twice this of the exact one, mm. @default 1e-5 */
   readonly radiusResolutionMm: number;
-  /** Bisection stops when the minimum wall is bracketed this tightly, mm; the reported value is the bracket's middle.
-   * @default 0.01 */
-  readonly wallResolutionMm: number;
+  /** The golden-section refinement of the thinnest and thickest samples stops when its bracket along the boundary is
+   * below this, mm. @default 1e-6 */
+  readonly refineResolutionMm: number;
 }
 
 /** Default wall settings, documented on `WallOptions`. */
@@ -41,8 +53,11 @@ export const DEFAULT_WALL_OPTIONS: WallOptions = Object.freeze({
   minPieceAreaMm2: 0.001,
   cornerSlackMm: 0.01,
   cornerDetailMm: 1,
-  radiusResolutionMm: 0.002,
-  wallResolutionMm: 0.01,
+  sampleSpacingMm: 0.25,
+  maxSamples: 20000,
+  facingAngleRad: Math.PI / 4,
+  radiusResolutionMm: 1e-5,
+  refineResolutionMm: 1e-6,
 });
 
 /**
@@ -59,5 +74,6 @@ export function resolveWallOptions(partial: Partial<WallOptions> = {}): WallOpti
   if (o.noiseMarginMm < 2.25 * o.openingArcToleranceMm + 2e-4) {
     throw new RangeError('wall options: noiseMarginMm must be at least 2.25 × openingArcToleranceMm + 2e-4 mm');
   }
+  if (!(o.facingAngleRad < Math.PI / 2)) throw new RangeError('wall options: facingAngleRad must be below π/2');
   return o;
 }

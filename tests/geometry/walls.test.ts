@@ -136,26 +136,20 @@ describe('measureMinWall and measureWalls', () => {
     expect(w.thickThinRatio).toBeCloseTo(w.maxWallMm / w.minWallMm, 12);
   });
 
-  it('measureWalls(gasket: 30×3 base with a hollow bulb, 1.5 mm wall, 261 vertices) finds the 1.5 mm bulb wall quickly once warm', () => {
+  it('measureWalls(gasket: 30×3 base with a hollow bulb, 1.5 mm wall, 261 vertices) finds the 1.5 mm bulb wall', () => {
     const bulb: Region = { outer: regularPolygon(160, 8, 15, 10), holes: [reversed(regularPolygon(120, 6.5, 15, 10))] };
     const gasket = unionRegions([bulb, box(30, 3)])[0]!;
-    measureWalls(gasket, tol); // warm the JIT, as a long-running service is
-    const start = performance.now();
     const w = measureWalls(gasket, tol);
-    const ms = performance.now() - start;
     // analytic: bulb wall = outer 160-gon inradius 8·cos(π/160) − hole 120-gon circumradius 6.5 ≈ 1.4985 mm
     expect(Math.abs(w.minWallMm - (8 * Math.cos(Math.PI / 160) - 6.5))).toBeLessThan(0.01);
     const r = Math.hypot(w.minAt[0] - 15, w.minAt[1] - 10);
     expect(r).toBeGreaterThan(6.5);
     expect(r).toBeLessThan(8);
-    // Measured 25–40 ms warm on this 2-core machine (about 70 ms on the second call); the bound only guards against
-    // a gross slowdown on a loaded CI machine.
-    expect(ms).toBeLessThan(500);
   });
 });
 
 describe('wall ends, fillets and chamfers', () => {
-  it('measureMinWall(right trapezoid, 8 mm end face under a 32° top) is 2h/(1 + cot(β/2)) ≈ 10.294', () => {
+  it('measureMinWall(right trapezoid, 8 mm end face under a 32° top) is 8 mm, at the thin end', () => {
     const h = 8;
     const slope = (32 * Math.PI) / 180;
     const trapezoid: Point[] = [
@@ -165,12 +159,12 @@ describe('wall ends, fillets and chamfers', () => {
       [0, h],
     ];
     const m = measureMinWall({ outer: trapezoid, holes: [] }, tol);
-    // analytic: a disc of radius r in a corner of interior angle α touches the edges r·cot(α/2) from the vertex; the
-    // slivers of the end corners (α 90° and β = 90° + 32°) meet across the end face when r(1 + cot(β/2)) = h, and the
-    // piece spanning the end face is a real wall from then on
-    const beta = Math.PI / 2 + slope;
-    expect(Math.abs(m.minWallMm - (2 * h) / (1 + 1 / Math.tan(beta / 2)))).toBeLessThan(0.01);
-    expect(m.at[0]).toBeLessThan(5);
+    // analytic: the wall tapers from the 8 mm end face upward; measured across (bottom to top, the faces 32° from
+    // facing), it is thinnest at the end face, 8 mm. (The opening method reported 2h/(1 + cot(β/2)) ≈ 10.294 here,
+    // the disc that fits the end's two corners.)
+    expect(Math.abs(m.minWallMm - h)).toBeLessThan(1e-4);
+    expect(m.at[0]).toBeLessThan(0.01);
+    expect(m.at[1]).toBeCloseTo(h / 2, 3);
   });
 
   it('findThinWalls(40×4 strip with 0.5 mm fillets drawn in 8 segments, 1.5) finds nothing; its min wall is 4', () => {
@@ -233,6 +227,6 @@ describe('interiorPoint', () => {
 describe('wall options', () => {
   it('resolveWallOptions rejects a noise margin too small for the opening arc tolerance', () => {
     expect(() => resolveWallOptions({ openingArcToleranceMm: 0.01, noiseMarginMm: 0.005 })).toThrow(RangeError);
-    expect(() => resolveWallOptions({ wallResolutionMm: 0 })).toThrow(RangeError);
+    expect(() => resolveWallOptions({ sampleSpacingMm: 0 })).toThrow(RangeError);
   });
 });
