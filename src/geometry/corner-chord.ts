@@ -81,8 +81,9 @@ export function isCornerChord(
   const forward = (((posQ - posP) % per) + per) % per;
   // Walk the vertices strictly between the two ends, the shorter way round.
   const step = forward <= per - forward ? 1 : -1;
-  let k = step > 0 ? (sp - f + 1) % m : sp - f;
-  const end = step > 0 ? (sq - f + 1) % m : sq - f;
+  // A chord end sitting on a vertex (a reflex vertex's fan, or a hit on a segment's start) does not pass it.
+  let k = step > 0 ? (sp - f + 1) % m : up > 0 ? sp - f : (sp - f - 1 + m) % m;
+  const end = step > 0 ? (uq > 0 ? (sq - f + 1) % m : sq - f) : sq - f;
   let corners = 0;
   let inRun = false;
   let runTurn = 0;

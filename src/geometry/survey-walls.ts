@@ -3,7 +3,8 @@ import { type WallProbe, probeWall } from './probe-wall.js';
 import { buildSegmentGrid, type SegmentGrid } from './segment-grid.js';
 import { type BoundaryBall, shrinkingBall } from './shrinking-ball.js';
 import { isCornerChord, ringTurns } from './corner-chord.js';
-import type { Region } from './types.js';
+import type { Point, Region } from './types.js';
+import { nearestBoundaryPoint } from './nearest-boundary-point.js';
 import type { WallOptions } from './wall-options.js';
 import { siteSample, type WallSite, wallSites } from './wall-site.js';
 
@@ -133,8 +134,13 @@ export function surveyWalls(region: Region, tol: Tolerances, o: WallOptions): Wa
   const found: { i: number; ball: BoundaryBall }[] = [];
   let best = 0;
   for (const i of byChord) {
-    if (halfChord(probes[i]!, diagonal) <= best + o.radiusResolutionMm) break;
-    const b = ball(probes[i]!);
+    const p = probes[i]!;
+    if (halfChord(p, diagonal) <= best + o.radiusResolutionMm) break;
+    // Discs tangent at p are nested, so one reaching past a boundary point at radius rho rules out any larger one.
+    const rho = best + o.radiusResolutionMm;
+    const c: Point = [p.at[0] + rho * p.normal[0], p.at[1] + rho * p.normal[1]];
+    if (best > 0 && nearestBoundaryPoint(grid, c, rho - tolMm).distance < rho - tolMm) continue;
+    const b = ball(p);
     found.push({ i, ball: b });
     if (b.radius > best) best = b.radius;
   }
