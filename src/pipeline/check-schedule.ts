@@ -50,7 +50,9 @@ export function checkSchedule(schedule: Schedule): ScheduleCheck {
   const measured = schedule.stations.map((station) => {
     const region = station.orifice;
     const walls = measureWalls(region, tol);
-    const thin = findThinWalls(region, schedule.limits.minWallMm, tol);
+    // No wall thinner than the limit measured across: skip the (slower) thin-wall search.
+    const thin =
+      walls.minWallMm < schedule.limits.minWallMm ? findThinWalls(region, schedule.limits.minWallMm, tol) : [];
     const box = boundingBox(region.outer);
     return {
       areaMm2: regionArea(region),
