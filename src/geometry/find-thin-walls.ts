@@ -6,6 +6,8 @@ import { differenceRegions } from './difference-regions.js';
 import { normalizeRegion } from './normalize-region.js';
 import { offsetRegions } from './offset-regions.js';
 import { regionArea } from './region-area.js';
+import { intersectRegions } from './intersect-regions.js';
+import { unionRegions } from './union-regions.js';
 import { minWallOfSurvey } from './measure-min-wall.js';
 import { surveyWalls } from './survey-walls.js';
 import { regionCentroid } from './region-centroid.js';
@@ -72,9 +74,72 @@ export function findThinWalls(
   }
   const o = resolveWallOptions(options);
   const normalized = normalizeRegion(region, tol);
-  // The opening costs seconds on profiles of thousands of vertices; the survey (near-linear) rules most of them out.
-  if (normalized.outer.length >= 3 && regionArea(normalized) > tol.lengthMm * tol.lengthMm) {
-    if (!(minWallOfSurvey(surveyWalls(normalized, tol, o), o).minWallMm < minWallMm)) return [];
+  if (!(normalized.outer.length >= 3 && regionArea(normalized) > tol.lengthMm * tol.lengthMm)) {
+    return thinWallPieces(prepareWallRegion(normalized), minWallMm, o);
   }
-  return thinWallPieces(prepareWallRegion(normalized), minWallMm, o);
+  // The opening costs seconds on profiles of thousands of vertices; the survey (near-linear) rules most of them out,
+  // and otherwise says where to look.
+  const survey = surveyWalls(normalized, tol, o);
+  if (!(minWallOfSurvey(survey, o).minWallMm < minWallMm)) return [];
+  const chords: [Point, Point][] = [];
+  survey.probes.forEach((p, i) => {
+    if (p.hit !== undefined && p.thicknessMm < minWallMm && survey.wallAt(i) < minWallMm)
+      chords.push([p.at, p.hit.point]);
+  });
+  const t = survey.thinnest;
+  if (t?.hit !== undefined && t.thicknessMm < minWallMm) chords.push([t.at, t.hit.point]);
+  // A compact shape with no facing sides is thin all over: open the whole of it.
+  if (chords.length === 0) return thinWallPieces(prepareWallRegion(normalized), minWallMm, o);
+  return thinWallsNearChords(normalized, chords, minWallMm, o);
+}
+
+/**
+ * The thin-wall pieces of a region near chords known to be thinner than `t`: the opening runs only on the region
+ * clipped to windows reaching at least 2t round those chords (whole cells of a t-sized grid, merged along rows so
+ * the clip stays small), and a piece counts only when it meets the chords' own boxes grown by t/2, so the windows'
+ * cut edges add nothing.
+ */
+function thinWallsNearChords(region: Region, chords: readonly [Point, Point][], t: number, o: WallOptions): ThinWall[] {
+  const box = (c: readonly [Point, Point], grow: number): BoundingBox => ({
+    minX: Math.min(c[0][0], c[1][0]) - grow,
+    maxX: Math.max(c[0][0], c[1][0]) + grow,
+    minY: Math.min(c[0][1], c[1][1]) - grow,
+    maxY: Math.max(c[0][1], c[1][1]) + grow,
+  });
+  const rows = new Map<number, Set<number>>();
+  for (const c of chords) {
+    const b = box(c, 2 * t);
+    for (let j = Math.floor(b.minY / t); j <= Math.floor(b.maxY / t); j++) {
+      const row = rows.get(j) ?? new Set<number>();
+      rows.set(j, row);
+      for (let i = Math.floor(b.minX / t); i <= Math.floor(b.maxX / t); i++) row.add(i);
+    }
+  }
+  const windows: Region[] = [];
+  for (const [j, row] of rows) {
+    const cells = [...row].sort((a, b) => a - b);
+    let start = cells[0]!;
+    for (let k = 1; k <= cells.length; k++) {
+      if (k < cells.length && cells[k] === cells[k - 1]! + 1) continue;
+      const end = cells[k - 1]! + 1;
+      windows.push({
+        outer: [
+          [start * t, j * t],
+          [end * t, j * t],
+          [end * t, (j + 1) * t],
+          [start * t, (j + 1) * t],
+        ],
+        holes: [],
+      });
+      if (k < cells.length) start = cells[k]!;
+    }
+  }
+  const inner = chords.map((c) => box(c, t / 2));
+  const meets = (b: BoundingBox): boolean =>
+    inner.some((q) => b.minX <= q.maxX && b.maxX >= q.minX && b.minY <= q.maxY && b.maxY >= q.minY);
+  const walls: ThinWall[] = [];
+  for (const local of intersectRegions([region], unionRegions(windows))) {
+    for (const piece of thinWallPieces(prepareWallRegion(local), t, o)) if (meets(piece.bbox)) walls.push(piece);
+  }
+  return walls.sort((a, b) => b.areaMm2 - a.areaMm2);
 }

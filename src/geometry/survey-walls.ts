@@ -19,6 +19,8 @@ export interface WallSurvey {
   readonly thickest: BoundaryBall;
   /** Medial discs computed (for the benchmark). */
   readonly balls: number;
+  /** The wall thickness of first-pass probe i, mm: its chord, or +∞ when the chord only spans a corner. */
+  readonly wallAt: (i: number) => number;
 }
 
 const GOLDEN = (Math.sqrt(5) - 1) / 2;
@@ -163,7 +165,11 @@ export function surveyWalls(region: Region, tol: Tolerances, o: WallOptions): Wa
     );
     if (top.radius > thickest.radius) thickest = top;
   }
-  return { grid, probes, thinnest, thickest, balls };
+  const wallAt = (i: number): number => {
+    const { site, index } = origin[i]!;
+    return wall(site, siteSample(site, index), probes[i]!);
+  };
+  return { grid, probes, thinnest, thickest, balls, wallAt };
 }
 
 /** Half the probe's chord, an upper bound on the medial disc touching its point; the grid's diagonal without one. */

@@ -116,6 +116,23 @@ describe('measureWalls: walls measured across, corners and strip ends excluded',
     expect(w.minAt[1]).toBeGreaterThan(10);
   });
 
+  it('measureWalls and findThinWalls(eccentric ring, 2000-gons, thinnest 0.5 mm on the +x side) find the one thin place', () => {
+    // outer circle R 20 at the origin; hole r 12 centred at (7.5, 0)
+    const hole = regularPolygon(2000, 12, 7.5, 0).reverse();
+    const region: Region = { outer: regularPolygon(2000, 20), holes: [hole] };
+    const w = measureWalls(region, tol);
+    // analytic: between eccentric circles the wall is thinnest on the line of centres, R − (d + r) = 0.5 mm; the
+    // 2000-gons depart from their circles by at most R(1 − cos(π/2000)) ≈ 2.5e-5 mm
+    expect(Math.abs(w.minWallMm - 0.5)).toBeLessThan(1e-4);
+    expect(w.minAt[0]).toBeGreaterThan(19);
+    expect(Math.abs(w.minAt[1])).toBeLessThan(0.01);
+    const thin = findThinWalls(region, 1, tol);
+    // analytic: the wall is below 1 mm only near +x (R − |(x, y) − c| − r < 1 for a short arc round the thinnest point)
+    expect(thin).toHaveLength(1);
+    expect(thin[0]!.centroid[0]).toBeGreaterThan(18);
+    expect(Math.abs(thin[0]!.centroid[1])).toBeLessThan(0.01);
+  });
+
   it('findThinWalls(40 × 8 strip, 7.9) is empty without an opening: the survey rules it out', () => {
     // analytic: the strip is 8 mm thick, above 7.9
     expect(findThinWalls(poly(rectangle(40, 8)), 7.9, tol)).toEqual([]);
