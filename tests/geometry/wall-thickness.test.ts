@@ -125,12 +125,14 @@ describe('measureWalls: walls measured across, corners and strip ends excluded',
     // 2000-gons depart from their circles by at most R(1 − cos(π/2000)) ≈ 2.5e-5 mm
     expect(Math.abs(w.minWallMm - 0.5)).toBeLessThan(1e-4);
     expect(w.minAt[0]).toBeGreaterThan(19);
-    expect(Math.abs(w.minAt[1])).toBeLessThan(0.01);
+    // analytic: near y = 0 the wall is 0.5 + y²(1/(2r) − 1/(2R)) ≈ 0.5 + 0.0167y², so the polygons' error (≈ 5e-5 mm)
+    // can move the thinnest point by up to about 0.06 mm along the wall
+    expect(Math.abs(w.minAt[1])).toBeLessThan(0.1);
     const thin = findThinWalls(region, 1, tol);
     // analytic: the wall is below 1 mm only near +x (R − |(x, y) − c| − r < 1 for a short arc round the thinnest point)
     expect(thin).toHaveLength(1);
     expect(thin[0]!.centroid[0]).toBeGreaterThan(18);
-    expect(Math.abs(thin[0]!.centroid[1])).toBeLessThan(0.01);
+    expect(Math.abs(thin[0]!.centroid[1])).toBeLessThan(0.1);
   });
 
   it('findThinWalls(40 × 8 strip, 7.9) is empty without an opening: the survey rules it out', () => {
