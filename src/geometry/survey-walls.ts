@@ -155,6 +155,8 @@ export function surveyWalls(region: Region, tol: Tolerances, o: WallOptions): Wa
     goldenSection(
       (u) => probe(site, u),
       (q) => {
+        // Half the chord bounds the disc: skip discs that cannot beat the largest found (costly near a circle).
+        if (halfChord(q, diagonal) <= top.radius + o.radiusResolutionMm) return -halfChord(q, diagonal);
         const b = ball(q);
         if (b.radius > top.radius) top = b;
         return -b.radius;
