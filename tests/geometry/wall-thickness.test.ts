@@ -166,3 +166,39 @@ describe('maxInscribedCircle against a brute-force search', () => {
     }
   });
 });
+
+describe('measureWalls thinnest wall against a brute-force search', () => {
+  it('measureWalls(10 seeded smooth blobs with an off-centre hole) finds the brute-force least ring-to-ring gap', () => {
+    const rand = mulberry32(17);
+    for (let k = 0; k < 10; k++) {
+      // outer: radius 10 + three random harmonics (amplitude ≤ 1.2 in all), 240 vertices; hole: circle r 2, 120-gon,
+      // centred 4.5–6 mm from the origin, so the thinnest wall (0.8–3.5 mm) lies between hole and outer ring
+      const h = Array.from({ length: 3 }, (_, m) => ({ a: 0.4 * rand(), f: m + 2, p: 2 * Math.PI * rand() }));
+      const outer = Array.from({ length: 240 }, (_, i): Point => {
+        const t = (2 * Math.PI * i) / 240;
+        const r = 10 + h.reduce((sum, c) => sum + c.a * Math.sin(c.f * t + c.p), 0);
+        return [r * Math.cos(t), r * Math.sin(t)];
+      });
+      const phi = 2 * Math.PI * rand();
+      const d = 4.5 + 1.5 * rand();
+      const hole = regularPolygon(120, 2, d * Math.cos(phi), d * Math.sin(phi)).reverse();
+      const region: Region = { outer, holes: [hole] };
+      // reference: brute force, every vertex of each ring against every segment of the other, O(n·m); the least
+      // distance between two disjoint polygons is attained between a vertex and a segment
+      let gap = Number.POSITIVE_INFINITY;
+      for (const [from, to] of [
+        [outer, hole],
+        [hole, outer],
+      ] as const) {
+        for (const v of from) {
+          for (let i = 0; i < to.length; i++)
+            gap = Math.min(gap, pointToSegmentDistance(v, to[i]!, to[(i + 1) % to.length]!));
+        }
+      }
+      const w = measureWalls(region, tol);
+      // the ends of that shortest segment face each other square on, so it is a chord along an inward normal
+      expect(Math.abs(w.minWallMm - gap)).toBeLessThan(1e-5);
+      expect(clearance(w.minAt, region)).toBeCloseTo(gap / 2, 4);
+    }
+  });
+});
