@@ -5,6 +5,7 @@ import { ScheduleWire, type ScheduleWireValue } from './schedule-schema.js';
 import { spanEndProblems } from './span-end-problems.js';
 import { toSchedule } from './to-schedule.js';
 import { unknownFields } from './unknown-fields.js';
+import { type ScheduleRoute, unusedFields } from './unused-fields.js';
 
 /** Bodies as they arrived, before zod dropped unknown fields; filled by `keepRawBody`. */
 const rawBodies = new WeakMap<FastifyRequest, unknown>();
@@ -14,9 +15,13 @@ export async function keepRawBody(request: FastifyRequest): Promise<void> {
   rawBodies.set(request, request.body);
 }
 
-/** Warnings for fields of the request's schedule that the format does not know (see `unknownFields`). */
-export function unknownScheduleFields(request: FastifyRequest): Finding[] {
-  return unknownFields(rawBodies.get(request), ScheduleWire);
+/**
+ * Warnings for fields of the request's schedule that the format does not know (see `unknownFields`), then notes on
+ * the fields it knows but the route does not use (see `unusedFields`).
+ */
+export function unknownScheduleFields(request: FastifyRequest, route: ScheduleRoute): Finding[] {
+  const body = rawBodies.get(request);
+  return [...unknownFields(body, ScheduleWire), ...unusedFields(body, route)];
 }
 
 /**

@@ -27,7 +27,9 @@ export const StationCheckWire = z.object({
   area_mm2: z.number(),
   perimeter_mm: z.number(),
   centroid_mm: PointOut,
-  min_wall_mm: z.number().describe('thinnest wall (smallest opening diameter that removes a wall)'),
+  min_wall_mm: z
+    .number()
+    .describe('thinnest wall, measured across between facing sides (corners and strip ends excluded), mm'),
   min_wall_at_mm: PointOut,
   max_wall_mm: z.number().describe('thickest wall (diameter of the largest inscribed circle)'),
   max_wall_at_mm: PointOut,

@@ -31,7 +31,7 @@ export const checkRoutes: FastifyPluginAsyncZod = async (app) => {
       const mapped = toCheckReport(schedule, check);
       const report = {
         ...mapped,
-        findings: [...unknownScheduleFields(request).map(toFindingWire), ...mapped.findings],
+        findings: [...unknownScheduleFields(request, 'checks').map(toFindingWire), ...mapped.findings],
       };
       const unreadable = unreadableFigure(report);
       if (unreadable) {

@@ -40,7 +40,7 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
         }
         const started = performance.now();
         const computed = planSchedule(schedule);
-        const plan = { ...computed, findings: [...unknownScheduleFields(request), ...computed.findings] };
+        const plan = { ...computed, findings: [...unknownScheduleFields(request, 'plans'), ...computed.findings] };
         const id = randomUUID();
         // checked before it is stored: a plan that could not be written out is stored as failed, with the reason
         const readable = readablePlan({ id, createdAt: now().toISOString(), schedule, plan });

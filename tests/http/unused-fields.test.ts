@@ -1,0 +1,52 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fixture, makeTestApp } from '../support/test-app.js';
+
+type App = Awaited<ReturnType<typeof makeTestApp>>;
+let app: App;
+beforeAll(async () => {
+  app = await makeTestApp();
+});
+afterAll(async () => {
+  await app.close();
+});
+
+const fieldsNamed = (findings: { code: string; message: string }[]) =>
+  findings.filter((f) => f.code === 'UNUSED_FIELD').map((f) => f.message.split(' ')[2]);
+
+describe('fields the format knows but a route does not use', () => {
+  it('a check names the fields no stage reads yet and those only a plan reads', async () => {
+    // the demo fixture sends every setting a line controller would (scripts/make-fixtures.ts)
+    const res = await request(app.server)
+      .post('/v1/checks')
+      .set('content-type', 'application/json')
+      .send(JSON.stringify(fixture('demo-edging-strip')));
+    expect(res.status).toBe(200);
+    expect(fieldsNamed(res.body.findings).sort()).toEqual(
+      [
+        'time_step_s',
+        'actuators.max_speed_deg_per_s',
+        'actuators.max_accel_deg_per_s2',
+        'plates.thickness_mm',
+        'limits.max_plates',
+        'plates.pivot_hole_diameter_mm',
+        'plates.ligament_mm',
+        'plates.depth_mm',
+        'actuators.count',
+        'repeat_length_m',
+      ].sort(),
+    );
+  });
+
+  it('a plan names only the fields no stage reads yet', async () => {
+    const created = await request(app.server)
+      .post('/v1/plans')
+      .set('content-type', 'application/json')
+      .send(JSON.stringify(fixture('demo-edging-strip')));
+    expect(created.status).toBe(202);
+    const plan = (await request(app.server).get(created.headers.location as string)).body;
+    expect(fieldsNamed(plan.findings).sort()).toEqual(
+      ['time_step_s', 'actuators.max_speed_deg_per_s', 'actuators.max_accel_deg_per_s2', 'plates.thickness_mm'].sort(),
+    );
+  });
+});
