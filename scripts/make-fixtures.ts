@@ -1,5 +1,5 @@
 /**
- * Writes the schedules in fixtures/ from the invented scenarios of DOMAIN.md §6. Run with `npx tsx
+ * Writes the schedules in fixtures/ from the invented scenarios of docs/MODEL.md §6. Run with `npx tsx
  * scripts/make-fixtures.ts`; the output is deterministic, so re-running it changes nothing unless this file changed.
  * Every number here is invented for demonstration.
  */
@@ -176,7 +176,7 @@ const fixedPartDisagrees = {
  * right and back every 1.5 m. Its stations are made, for this demo, by a die of four plates, 14 mm between pivots,
  * pinned to the die body at (−6, 12) and (46, 12), whose second plate is held by one link from the die body, all
  * driven by one actuator on the first plate's ground pivot at 0.15, 0.30 and 0.45 rad: the melt edge is the plates'
- * pivot line swollen by e = 5 mm (DOMAIN.md §2). The chain closes by the law of cosines.
+ * pivot line swollen by e = 5 mm (docs/MODEL.md §2). The chain closes by the law of cosines.
  */
 function rollingRidgeStations(): { outer: P[]; holes: P[][] }[] {
   const start: P = [-6, 12];

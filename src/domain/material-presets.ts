@@ -30,12 +30,12 @@ export interface MaterialPreset {
 export const MATERIAL_PRESETS: Readonly<Record<Exclude<MaterialName, 'custom'>, MaterialPreset>> = Object.freeze({
   'PVC-U': {
     name: 'PVC-U',
-    solidDensityGPerCm3: 1.4, // polymer handbooks: 1.30–1.45 (DOMAIN.md §5)
+    solidDensityGPerCm3: 1.4, // polymer handbooks: 1.30–1.45 (docs/MODEL.md §5)
     meltDensityGPerCm3: 1.25, // [mem] rigid PVC melt near 190 °C
     powerLawN: 0.26, // Osswald, Polymer Processing Fundamentals [mem]
     powerLawMPaSn: 170_000, // [mem] rigid PVC compound near 190 °C
     dieSwell: 1.05, // [mem] rigid PVC swells little
-    dieTemperatureC: 190, // PVC-U melt 160–210 °C (DOMAIN.md §4)
+    dieTemperatureC: 190, // PVC-U melt 160–210 °C (docs/MODEL.md §4)
     drawDown: { min: 1.0, max: 1.2 }, // rigid PVC profiles about 1.0–1.2 [mem]
     wallTolerance: 0.08, // ±8 % rigid PVC: published extrusion tolerance charts (common practice)
     solidDensityRange: { min: 1.3, max: 1.45 },
@@ -43,7 +43,7 @@ export const MATERIAL_PRESETS: Readonly<Record<Exclude<MaterialName, 'custom'>, 
   HDPE: {
     name: 'HDPE',
     solidDensityGPerCm3: 0.95, // polymer handbooks: 0.94–0.965
-    meltDensityGPerCm3: 0.76, // [mem] (DOMAIN.md §5)
+    meltDensityGPerCm3: 0.76, // [mem] (docs/MODEL.md §5)
     powerLawN: 0.41, // Osswald [mem]
     powerLawMPaSn: 20_000, // [mem] extrusion grade near 200 °C
     dieSwell: 1.2, // [mem] polyolefins swell more than PVC

@@ -57,7 +57,7 @@ export function ringTurns(grid: SegmentGrid): RingTurns {
  * are walls. Two corners on the way (the two ends of a strip's end face) make a wall too.
  *
  * Reference: the corner-sliver rule of the morphological method (`findThinWalls`), restated for chords: a disc or
- * calliper set into one corner measures the corner, not a wall (DOMAIN.md §3).
+ * calliper set into one corner measures the corner, not a wall (docs/MODEL.md §3).
  */
 export function isCornerChord(
   grid: SegmentGrid,

@@ -50,10 +50,10 @@ export function thinWallPieces(prepared: PreparedWallRegion, t: number, o: WallO
 /**
  * The parts of a region where the wall is thinner than `minWallMm`, mm; empty when every wall is thick enough.
  *
- * Method (mathematical morphology, DOMAIN.md §3): the opening of the region by a disc of diameter t (offset in by t/2,
- * then out by t/2, round joins) keeps exactly the material a disc of diameter t can reach, so `region − opening` is
- * every wall thinner than t, plus slivers in sharp convex corners. A residue piece that lies within r·cot(α/2) + ε of a
- * single convex corner of interior angle α (r = t/2, ε = `cornerSlackMm`) is only a sharp corner and is dropped; a
+ * Method (mathematical morphology, docs/MODEL.md §3): the opening of the region by a disc of diameter t (offset in by
+ * t/2, then out by t/2, round joins) keeps exactly the material a disc of diameter t can reach, so `region − opening`
+ * is every wall thinner than t, plus slivers in sharp convex corners. A residue piece that lies within r·cot(α/2) + ε
+ * of a single convex corner of interior angle α (r = t/2, ε = `cornerSlackMm`) is only a sharp corner and is dropped; a
  * corner rounded or chamfered by convex vertices joined by edges no longer than `cornerDetailMm` counts as one corner
  * at the meeting point of its outer edges. Pieces smaller than `minPieceAreaMm2` (default 0.001 mm²) are dropped too.
  * Before subtracting, the opening is grown by `noiseMarginMm` (default 0.005 mm) so clipper's arc chords and 1e-4 mm

@@ -54,7 +54,7 @@ export interface ChainTopology {
 }
 
 /**
- * Reads the fitted chain as a mechanism loop (DOMAIN.md §2): each plate's frame has pivot 0 of the plate at its
+ * Reads the fitted chain as a mechanism loop (docs/MODEL.md §2): each plate's frame has pivot 0 of the plate at its
  * origin and its x axis toward its next pivot; a telescoping pair is two bodies sliding along that axis; a slotted end
  * is a slider block (frame angle 0) on a prismatic joint with the die body. Plates alternate layers 1 and 2 unless
  * `plateLayers` (one per plate, from 1) says otherwise; the slide of a pair takes the other of 1 and 2; slider blocks

@@ -27,8 +27,8 @@ export interface GroundPivotRegion {
 }
 
 /**
- * The die body outside the melt channel (DOMAIN.md §2): a ground pivot lies inside the frame (the opening's bounding
- * box grown by `frameMarginMm`), outside the die opening and outside every station's orifice, with at least
+ * The die body outside the melt channel (docs/MODEL.md §2): a ground pivot lies inside the frame (the opening's
+ * bounding box grown by `frameMarginMm`), outside the die opening and outside every station's orifice, with at least
  * `clearanceMm` of steel between its centre and the edge of each (its hole and ligament).
  */
 export function groundPivotRegion(

@@ -1,6 +1,6 @@
 /**
  * Mechanisation: the fitted plate chain driven by the number of actuators the plant asks for, with binary links by
- * Burmester theory and every claim proved with the kinematics engine (DOMAIN.md §3). The only door of this folder.
+ * Burmester theory and every claim proved with the kinematics engine (docs/MODEL.md §3). The only door of this folder.
  */
 export { type MechaniseOptions, type MechaniseRequest, resolveMechaniseOptions } from './mechanise-options.js';
 export { type ChainBody, type ChainTopology, chainTopology, type MechanisableChain } from './chain-topology.js';

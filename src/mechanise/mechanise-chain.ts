@@ -19,7 +19,7 @@ import { type PlateSearch, reducedMode } from './reduced-mode.js';
 
 /**
  * Turns a fitted plate chain into a complete mechanism with exactly `request.actuatorCount` actuators that passes
- * through every station in schedule order (DOMAIN.md §3 "Mechanisation" and "Position analysis"):
+ * through every station in schedule order (docs/MODEL.md §3 "Mechanisation" and "Position analysis"):
  * 1. every station's chain is closed exactly (`assembleStations`) and coincident stations are merged;
  * 2. direct mode when the count equals the chain's degrees of freedom (actuators on joints, no links); otherwise
  *    reduced mode (`reducedMode`): binary links by Burmester theory for the distinct positions (circumcentres for up

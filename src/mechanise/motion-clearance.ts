@@ -70,7 +70,7 @@ export interface ClearanceParts {
 }
 
 /**
- * Room between the moving parts along the whole traced motion, not only at the stations (DOMAIN.md §2–3):
+ * Room between the moving parts along the whole traced motion, not only at the stations (docs/MODEL.md §2–3):
  * - every link's die-body pin clear of every plate by at least the pin radius (the die-body pivots lie outside the
  *   area the plates sweep);
  * - every link's plate pin clear, by its radius, of the plates on the layers between its plate and its link, and of

@@ -11,7 +11,7 @@ export interface PlatePinRegion {
 }
 
 /**
- * The plate body behind the pivot line, never on the melt side (DOMAIN.md §2; `plateOutline`): x within the body's
+ * The plate body behind the pivot line, never on the melt side (docs/MODEL.md §2; `plateOutline`): x within the body's
  * pin span, y from `clearanceMm` behind the pivot line to `clearanceMm` short of the back edge (the plate reaches
  * `depthMm − e` behind its pivot line), and the pin's centre at least one hole diameter plus a ligament (e + hole
  * radius) from each pivot of the body. The plate's straight side edges are not checked: plates shorter than two

@@ -54,7 +54,7 @@ export interface Plan {
  * request → validated schedule → profile checks → chain fit → mechanisation (binary links and actuators, proved by
  * driving the mechanism through every station). Pure and synchronous.
  *
- * Fit and mechanisation are one search (DOMAIN.md §3, "Fit and links as one problem"): when the chain fitted as
+ * Fit and mechanisation are one search (docs/MODEL.md §3, "Fit and links as one problem"): when the chain fitted as
  * asked cannot be driven by the requested actuators, other chains that trace the stations are fitted (pinned ends
  * only: a slot or a telescoping pair adds a degree of freedom; one plate more: pivots in other places; deeper plates:
  * room for link pins) and the first that the requested actuators drive wins. When none does, the plan is `incomplete`

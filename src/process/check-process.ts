@@ -56,7 +56,7 @@ export interface ProcessCheck {
 }
 
 const PA_PER_BAR = 1e5;
-/** Upper end of the usual melt-pressure range (DOMAIN.md §4: often 70–350 bar). */
+/** Upper end of the usual melt-pressure range (docs/MODEL.md §4: often 70–350 bar). */
 const HIGH_LAND_PRESSURE_BAR = 350;
 /** Pressure swing between stations worth a warning: common practice, no source. */
 const PRESSURE_SWING_RATIO = 1.5;

@@ -24,7 +24,7 @@ export function velocityDrawRatio(
 /**
  * Puller speed that holds a target area draw-down for a given orifice, m/s: the product area must be A_orifice/ADR,
  * and the mass balance gives v = ṁ / (ρ_solid · A_product). Holding screw speed and varying puller speed this way is
- * the usual way to keep draw-down steady as the orifice changes (DOMAIN.md §3).
+ * the usual way to keep draw-down steady as the orifice changes (docs/MODEL.md §3).
  */
 export function pullerSpeedForDrawDown(
   throughputKgPerS: number,

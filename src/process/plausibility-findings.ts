@@ -19,8 +19,8 @@ export const PLAUSIBLE = Object.freeze({
   fitToleranceWallFraction: 0.25,
   /**
    * Highest land pressure the isothermal power-law slit estimate is reported as a figure, bar. Extruders are rated
-   * for a few hundred bar (DOMAIN.md §4: often 70–350 bar, higher possible); above 1000 bar the estimate has left its
-   * range (common practice, no source).
+   * for a few hundred bar (docs/MODEL.md §4: often 70–350 bar, higher possible); above 1000 bar the estimate has left
+   * its range (common practice, no source).
    */
   maxLandPressureBar: 1000,
 });

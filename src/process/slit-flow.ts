@@ -1,6 +1,6 @@
 /**
  * Isothermal flow of a power-law melt (τ = m·γ̇ⁿ) through a wide slit, the standard result (e.g. Tadmor & Gogos,
- * *Principles of Polymer Processing*; DOMAIN.md §3):
+ * *Principles of Polymer Processing*; docs/MODEL.md §3):
  *
  *   q = n/(2n+1) · (H²/2) · (H·ΔP / (2·m·L))^(1/n)      (flow per unit width)
  *

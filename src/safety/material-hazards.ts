@@ -26,11 +26,11 @@ const POLYOLEFIN_DECOMPOSITION =
 /** Melt hazards per material preset (and neutral text for `custom`). */
 export const MATERIAL_HAZARDS: Readonly<Record<MaterialName, MaterialHazard>> = Object.freeze({
   'PVC-U': {
-    meltRangeC: { min: 160, max: 210 }, // DOMAIN.md §4
+    meltRangeC: { min: 160, max: 210 }, // docs/MODEL.md §4
     meltRangeSource: 'rigid PVC melt',
     decompositionCode: 'PVC_DECOMPOSITION',
     decompositionHazard: 'PVC decomposition',
-    // DOMAIN.md §4: HCl from about 170–180 °C, faster above 200 °C
+    // docs/MODEL.md §4: HCl from about 170–180 °C, faster above 200 °C
     decomposition:
       'PVC releases hydrogen chloride when it degrades, from about 170–180 °C and faster above 200 °C; degraded melt discolours (yellow, brown, black) and corrodes steel.',
   },

@@ -6,7 +6,7 @@ const DEFER =
 
 /**
  * The safety cautions every check, plan and export carries, the melt hazards written for the schedule's material
- * (`MATERIAL_HAZARDS`, each figure with its source or marked from memory). Facts from DOMAIN.md §4: PVC-U melt
+ * (`MATERIAL_HAZARDS`, each figure with its source or marked from memory). Facts from docs/MODEL.md §4: PVC-U melt
  * 160–210 °C, extruder zones up to about 400 °C; PVC releases HCl from about 170–180 °C, faster above 200 °C; melt
  * pressure often 70–350 bar; guards ISO 14120, unexpected start-up ISO 14118, lockout OSHA 29 CFR 1910.147, risk
  * assessment ISO 12100, extruder safety EN 1114-1, crushing gaps ISO 13854.

@@ -11,7 +11,7 @@ export type EndKind = 'pivot' | 'slot';
  *   start end: pivot (x, y) | slot (x, y, ψ, travel per station);  end end: the same.
  * Station i's pivots: P_0 = start pin, P_k = P_{k−1} + L_k·(cos θ_k,i, sin θ_k,i).
  * Residuals: for every span sample q, dist(q, pivot polyline) − e (zero when q lies on the plates' swollen melt edge,
- * DOMAIN.md §2); W·(P_N − end pin) per station (closure); weak ties of each end's position to its start value (they
+ * docs/MODEL.md §2); W·(P_N − end pin) per station (closure); weak ties of each end's position to its start value (they
  * fix the gauge when a straight end plate could slide along itself).
  */
 export interface ChainProblemSpec {

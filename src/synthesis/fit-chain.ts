@@ -159,7 +159,7 @@ export interface PlateCountSearch {
 }
 
 /**
- * Finds the plates and pivots whose edges trace every station's moving span (DOMAIN.md §2–3): pivot-line targets at
+ * Finds the plates and pivots whose edges trace every station's moving span (docs/MODEL.md §2–3): pivot-line targets at
  * e behind each span, greedy marching for a first plate count, Levenberg–Marquardt over common lengths and per-station
  * angles, then the exact achieved orifice by clipping (opening − plates). The smallest plate count that meets the
  * tolerance wins; if none does up to `maxPlates`, the best found comes back with findings. When the stations' spans

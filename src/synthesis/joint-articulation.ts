@@ -4,7 +4,7 @@ import type { PlateChain } from './plate-chain.js';
  * How far each interior pivot turns across the stations: for pivot k (k = 1 … N − 1, between plates k − 1 and k),
  * the spread (largest − smallest) of the relative angle θ_k − θ_{k−1} over the stations, radians, unwrapped about the
  * first station's value. Entry k − 1 of the result is pivot k. A pivot that hardly turns adds a degree of freedom no
- * binary link can take up (DOMAIN.md §3, "Fit and links as one problem"): its two plates are one plate.
+ * binary link can take up (docs/MODEL.md §3, "Fit and links as one problem"): its two plates are one plate.
  */
 export function jointArticulation(chain: PlateChain): number[] {
   const n = chain.lengthsMm.length;

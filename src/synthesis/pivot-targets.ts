@@ -27,7 +27,7 @@ export interface PivotTarget {
 }
 
 /**
- * Targets for the chain fit (DOMAIN.md §2): a pivot pin needs a hole and steel round it, so the pivot line runs at
+ * Targets for the chain fit (docs/MODEL.md §2): a pivot pin needs a hole and steel round it, so the pivot line runs at
  * e = hole radius + ligament behind the orifice edge, and the plates' melt edge is the pivot polyline swollen by e.
  * Each span is resampled every `spacingMm` and offset by e to the left of travel (the plate side); where a concave
  * bend is tighter than e the offset would fold over itself, so folded stretches are cut out.

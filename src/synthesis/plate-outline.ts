@@ -14,8 +14,8 @@ export interface PlateShape {
 /**
  * Outline of a straight plate between pivots `a` and `b` (die-body frame, mm): its melt edge runs parallel to a→b at
  * e on the right (the melt side of a span walked clockwise), with ends that are arcs of radius e centred on the
- * pivots, so neighbouring plates seal against each other at any relative angle (DOMAIN.md §2); on the body side each
- * end may fan round its pivot to the full depth (`fans`, radians from the body-side normal toward the plate's own
+ * pivots, so neighbouring plates seal against each other at any relative angle (docs/MODEL.md §2); on the body side
+ * each end may fan round its pivot to the full depth (`fans`, radians from the body-side normal toward the plate's own
  * axis; see `pivotFans`), so that where the chain bends away from the body, neighbours on alternate layers still
  * overlap behind the pivot and no wedge of die opening opens between them; two pivot holes. Outer ring
  * counter-clockwise, holes clockwise.

@@ -19,7 +19,7 @@ export interface EdgeShapeOptions {
 }
 
 /**
- * Shaped edges common to all stations (DOMAIN.md §2): for every plate, the pieces of each station's span that the
+ * Shaped edges common to all stations (docs/MODEL.md §2): for every plate, the pieces of each station's span that the
  * plate forms are carried into the plate's own frame and averaged; the mean becomes the plate's edge, blended into
  * the round ends over min(e, L/3) at each end so that neighbours still seal at any angle. Where stations share
  * curvature the edge follows it exactly, and what is left is how much the stations differ locally. A plate that no

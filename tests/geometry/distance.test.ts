@@ -55,7 +55,7 @@ describe('Hausdorff distance', () => {
     const arc = arcOverChord(50, 10, 64);
     const chord: Point[] = [arc[0]!, arc[arc.length - 1]!];
     const h = hausdorffDistance(chord, arc);
-    // standard geometry (DOMAIN.md §5): sagitta R − √(R² − L²/4); R 50, L 10 → 0.250628
+    // standard geometry (docs/MODEL.md §5): sagitta R − √(R² − L²/4); R 50, L 10 → 0.250628
     expect(h.distance).toBeCloseTo(50 - Math.sqrt(2500 - 25), 9);
     expect(h.distance).toBeCloseTo(0.250628, 6);
     // The realising pair: the chord's middle and the arc's middle.

@@ -91,7 +91,7 @@ describe('polyline length and arc-length positions', () => {
       // analytic: equal arcs of angle 2·asin(L/2R) give chords of L = 10 mm
       expect(Math.hypot(b[0] - a[0], b[1] - a[1])).toBeCloseTo(10, 6);
       const mid: Point = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
-      // standard geometry (DOMAIN.md §5): sagitta R − √(R² − L²/4); R 50, L 10 → 0.250628
+      // standard geometry (docs/MODEL.md §5): sagitta R − √(R² − L²/4); R 50, L 10 → 0.250628
       expect(closestPointOnPolyline(mid, arc).distance).toBeCloseTo(0.250628, 6);
     }
   });

@@ -182,7 +182,7 @@ describe('wall ends, fillets and chamfers', () => {
       ],
       holes: [],
     };
-    // reference: DOMAIN.md §5 minimum corner radius 0.5 mm (common practice); the strip is a 4 mm wall
+    // reference: docs/MODEL.md §5 minimum corner radius 0.5 mm (common practice); the strip is a 4 mm wall
     expect(findThinWalls(strip, 1.5, tol)).toEqual([]);
     expect(Math.abs(measureMinWall(strip, tol).minWallMm - 4)).toBeLessThan(0.01);
   });

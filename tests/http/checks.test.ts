@@ -74,7 +74,7 @@ describe('POST /v1/checks', () => {
     // thinnest wall: the 3 mm floor and top (12 − 9) around the chamber
     expect(res.body.stations[0].min_wall_mm).toBeCloseTo(3, 1);
     expect(res.body.stations[0].moving_span.length_mm).toBeCloseTo(40, 6);
-    // walls 3 mm (floor, top) and 4 mm (sides): power-law slit ratios with PVC-U n = 0.26 (DOMAIN.md §3):
+    // walls 3 mm (floor, top) and 4 mm (sides): power-law slit ratios with PVC-U n = 0.26 (docs/MODEL.md §3):
     // flow (4/3)^(2+1/n), pressure (4/3)^(1+2n) [derived]
     const s0 = res.body.stations[0];
     const n = 0.26;

@@ -53,7 +53,7 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
       if (plan.chain.telescoping.length === 0) for (const l of lengths) expect(l).toBeCloseTo(lengths[0], 3);
     }
     expect(plan.cautions.length).toBeGreaterThan(3);
-    // one actuator asked for, as the demo scenario says (DOMAIN.md §6): the plan meets it
+    // one actuator asked for, as the demo scenario says (docs/MODEL.md §6): the plan meets it
     expect(plan.status).toBe('done');
     expect(plan.outcome).toEqual({ meets_request: true, shortfalls: [] });
     const mech = plan.mechanisation;

@@ -90,7 +90,7 @@ describe('traceActuatorPath', () => {
   });
 
   it('monitorPath(four-bar full turn) finds no branch defect, μmin 26.38° at θ2 = 0 and a bounded condition', () => {
-    // Reference: cos μ formula (DOMAIN.md §5); a Grashof crank-rocker driven by its crank has no singular position
+    // Reference: cos μ formula (docs/MODEL.md §5); a Grashof crank-rocker driven by its crank has no singular position
     const m = buildFourBar(DIMS);
     const trace = traceActuatorPath(initialPose(m, [0]), [2 * Math.PI]);
     const q = monitorPath(trace.samples);

@@ -25,7 +25,8 @@ describe('dyadTransmissionAngles', () => {
   const chain = buildPinnedChain([a, b, c], [0, 0], [d, 0], { drive: true });
 
   it('a three-plate chain driven at θ2 = 40° has μ 37.03° at its coupler–rocker pivot (cosine rule)', () => {
-    // Reference: DOMAIN.md §5 (Freudenstein/cos μ closed form [derived]; Norton Ex. 4-1 [mem]): μ = 37.03° at θ2 = 40°
+    // Reference: docs/MODEL.md §5 (Freudenstein/cos μ closed form [derived]; Norton Ex. 4-1 [mem]):
+    // μ = 37.03° at θ2 = 40°
     const r = solvePosition(chain, [toRadians(40)], { start: initialPose(chain) });
     expect(r.status).toBe('converged');
     const mus = dyadTransmissionAngles(r.pose);

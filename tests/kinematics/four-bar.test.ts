@@ -40,7 +40,8 @@ function muClosedForm(theta2: number): number {
 
 describe('four-bar 40/120/80/100', () => {
   it('solveFourBarClosedForm(θ2 = 40°) gives θ3 20.2979°, θ4 57.3249° open and −60.9780°, −98.0050° crossed', () => {
-    // Reference: Freudenstein closed form [derived]; Norton, Design of Machinery, Ex. 4-1 [from memory] (DOMAIN.md §5)
+    // Reference: Freudenstein closed form [derived]; Norton, Design of Machinery, Ex. 4-1 [from memory]
+    // (docs/MODEL.md §5)
     const open = solveFourBarClosedForm(DIMS, toRadians(40), 'open');
     const crossed = solveFourBarClosedForm(DIMS, toRadians(40), 'crossed');
     expect(toDegrees(open.theta3)).toBeCloseTo(20.2979, 4);
@@ -50,7 +51,7 @@ describe('four-bar 40/120/80/100', () => {
   });
 
   it('solvePosition(four-bar 40/120/80/100, θ2=40°) gives θ3 20.2979°, θ4 57.3249° on the open circuit', () => {
-    // Reference: DOMAIN.md §5 (Freudenstein closed form; Norton Ex. 4-1 [from memory]); start 10° away
+    // Reference: docs/MODEL.md §5 (Freudenstein closed form; Norton Ex. 4-1 [from memory]); start 10° away
     const r = solvePosition(buildFourBar(DIMS, { theta2: toRadians(30) }), [toRadians(40)]);
     expect(r.status).toBe('converged');
     expect(r.residual).toBeLessThan(1e-10);
@@ -60,7 +61,7 @@ describe('four-bar 40/120/80/100', () => {
   });
 
   it('solvePosition(four-bar 40/120/80/100, θ2=40°) gives θ3 −60.9780°, θ4 −98.0050° on the crossed circuit', () => {
-    // Reference: DOMAIN.md §5 (Freudenstein closed form; Norton Ex. 4-1 [from memory])
+    // Reference: docs/MODEL.md §5 (Freudenstein closed form; Norton Ex. 4-1 [from memory])
     const r = solvePosition(buildFourBar(DIMS, { theta2: toRadians(30), circuit: 'crossed' }), [toRadians(40)]);
     expect(r.status).toBe('converged');
     const { theta3, theta4 } = angles(r.pose);
@@ -119,7 +120,7 @@ describe('four-bar 40/120/80/100', () => {
   });
 
   it('transmissionAngles(θ2 = 40°) gives μ 37.03° for coupler and rocker', () => {
-    // Reference: cos μ = (b² + c² − a² − d² + 2ad·cos θ2)/(2bc) = 0.79835 [derived] (DOMAIN.md §5)
+    // Reference: cos μ = (b² + c² − a² − d² + 2ad·cos θ2)/(2bc) = 0.79835 [derived] (docs/MODEL.md §5)
     const r = solvePosition(buildFourBar(DIMS, { theta2: toRadians(40) }), [toRadians(40)]);
     const mus = transmissionAngles(r.pose);
     expect(mus.map((t) => t.linkId).sort()).toEqual(['coupler', 'rocker']);
@@ -132,7 +133,7 @@ describe('four-bar 40/120/80/100', () => {
   });
 
   it('transmission angle along a full crank turn is smallest, 26.38°, at θ2 = 0°', () => {
-    // Reference: cos μ formula at θ2 = 0: (9200 + 8000)/19200 = 0.8958 → 26.38° (DOMAIN.md §5)
+    // Reference: cos μ formula at θ2 = 0: (9200 + 8000)/19200 = 0.8958 → 26.38° (docs/MODEL.md §5)
     const m = buildFourBar(DIMS);
     const trace = traceActuatorPath(initialPose(m, [0]), [2 * Math.PI]);
     let worst = { mu: Math.PI, theta2: Number.NaN };

@@ -17,7 +17,7 @@ import { toRadians } from '../../src/numeric/index.js';
 
 describe('mobility', () => {
   it('grublerMobility and analyseMobility give 1 for a four-bar and a slider-crank', () => {
-    // Reference: Grübler–Kutzbach M = 3(n − 1) − 2·j1: 3·3 − 2·4 = 1 (DOMAIN.md §3)
+    // Reference: Grübler–Kutzbach M = 3(n − 1) − 2·j1: 3·3 − 2·4 = 1 (docs/MODEL.md §3)
     for (const m of [buildFourBar({ a: 40, b: 120, c: 80, d: 100 }), buildSliderCrank({ r: 40, l: 120, e: 0 })]) {
       expect(grublerMobility(m)).toBe(1);
       const mob = analyseMobility(initialPose(m));
@@ -55,7 +55,7 @@ describe('mobility', () => {
 
   for (const n of [2, 3, 4, 5, 8, 12]) {
     it(`analyseMobility(chain of ${n} plates pinned at both ends) gives ${n - 2}`, () => {
-      // Reference: DOMAIN.md §3: a chain of N plates pinned at both ends has N − 2 degrees of freedom
+      // Reference: docs/MODEL.md §3: a chain of N plates pinned at both ends has N − 2 degrees of freedom
       const m = buildPinnedChain(
         Array.from({ length: n }, (_, k) => 20 + 3 * k),
         [0, 0],
@@ -84,7 +84,7 @@ describe('mobility', () => {
 
   for (const plates of [3, 6, 10, 21]) {
     it(`analyseMobility(braced chain of ${plates} plates, ${2 * plates - 2} bodies) gives 1`, () => {
-      // Reference: N − 2 for the chain, minus one per binary link (N − 3 links) = 1 (DOMAIN.md §3)
+      // Reference: N − 2 for the chain, minus one per binary link (N − 3 links) = 1 (docs/MODEL.md §3)
       const m = buildBracedChain(plates);
       expect(m.bodies).toHaveLength(2 * plates - 2);
       expect(grublerMobility(m)).toBe(1);
@@ -93,7 +93,7 @@ describe('mobility', () => {
   }
 
   it('analyseMobility(parallelogram with a redundant parallel link) gives Grübler 0 but numerical 1', () => {
-    // Reference: the classic exception to the Grübler–Kutzbach count (special geometry; DOMAIN.md §3)
+    // Reference: the classic exception to the Grübler–Kutzbach count (special geometry; docs/MODEL.md §3)
     const pins = {
       O2: [0, 0],
       O4: [100, 0],

@@ -16,7 +16,7 @@ const DIMS = { r: 40, l: 120, e: 0 };
 
 describe('slider-crank r 40, l 120', () => {
   it('solvePosition(slider-crank r 40, l 120, e 0, θ = 40°) puts the slider at x = 147.8549', () => {
-    // Reference: closed form x = r·cos θ + √(l² − (r·sin θ − e)²) [derived] (DOMAIN.md §5)
+    // Reference: closed form x = r·cos θ + √(l² − (r·sin θ − e)²) [derived] (docs/MODEL.md §5)
     expect(sliderCrankPosition(DIMS, toRadians(40))).toBeCloseTo(147.8549, 4);
     const r = solvePosition(buildSliderCrank(DIMS, { theta: toRadians(10) }), [toRadians(40)]);
     expect(r.status).toBe('converged');

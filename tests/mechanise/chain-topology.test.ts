@@ -11,7 +11,7 @@ const STATIONS = freeStations([
 
 describe('chainTopology', () => {
   it('a chain of 4 plates pinned at both ends has 4 − 2 = 2 degrees of freedom', () => {
-    // Grübler–Kutzbach M = 3(n − 1) − 2·j1 (DOMAIN.md §3): n = 5 bodies, j1 = 5 pins
+    // Grübler–Kutzbach M = 3(n − 1) − 2·j1 (docs/MODEL.md §3): n = 5 bodies, j1 = 5 pins
     const t = chainTopology(fourPlateFit(STATIONS));
     expect(t.degreesOfFreedom).toBe(2);
     expect(grublerMobility(buildMechanism(t, [], [], t.fittedPoses[0]!))).toBe(2);
@@ -20,7 +20,7 @@ describe('chainTopology', () => {
   });
 
   it('a slotted end adds one degree of freedom and a telescoping pair another', () => {
-    // DOMAIN.md §3: each prismatic joint adds one
+    // docs/MODEL.md §3: each prismatic joint adds one
     const base = fourPlateFit(STATIONS);
     const slotted = {
       ...base,

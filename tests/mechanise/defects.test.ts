@@ -47,8 +47,8 @@ describe('driveThroughStations', () => {
   });
 
   it('stations on opposite circuits of a crank-rocker are a branch defect, and the leg is not traced', () => {
-    // Grashof crank-rocker 40/120/80/100 (DOMAIN.md §5): open and crossed assemblies at θ2 60° and 80° have opposite
-    // signs of the driven-Jacobian determinant (Haug; Chase & Mirth 1993)
+    // Grashof crank-rocker 40/120/80/100 (docs/MODEL.md §5): open and crossed assemblies at θ2 60° and 80° have
+    // opposite signs of the driven-Jacobian determinant (Haug; Chase & Mirth 1993)
     const dims = { a: 40, b: 120, c: 80, d: 100 };
     const m = buildFourBar(dims, { theta2: toRadians(60) });
     const open = fourBarAt(m, dims, 60, 'open');

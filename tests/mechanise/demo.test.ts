@@ -42,8 +42,8 @@ describe('mechaniseChain on the demo edging strip (README; stations made by a 4-
   });
 
   it('fits the 4 plates of the die that made the stations and drives them with 1 actuator and 1 link', () => {
-    // self-consistent case (DOMAIN.md §5): 4 plates pinned at both ends have 2 degrees of freedom (Grübler–Kutzbach),
-    // one binary link takes one, the actuator the other
+    // self-consistent case (docs/MODEL.md §5): 4 plates pinned at both ends have 2 degrees of freedom
+    // (Grübler–Kutzbach), one binary link takes one, the actuator the other
     expect(fit.plateCount).toBe(4);
     expect(result.status).toBe('mechanised');
     expect(result.mechanism!.actuators).toHaveLength(1);

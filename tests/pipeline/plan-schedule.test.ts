@@ -24,7 +24,7 @@ function plan(wire: unknown) {
 
 describe('planSchedule: fit and mechanisation as one search', () => {
   it('a known 4-plate chain with one link plans as 4 plates driven by 1 actuator, and says the request is met', () => {
-    // self-consistent case (DOMAIN.md §5): the truth is a 1-degree-of-freedom mechanism of 4 plates and 1 link
+    // self-consistent case (docs/MODEL.md §5): the truth is a 1-degree-of-freedom mechanism of 4 plates and 1 link
     // (Grübler–Kutzbach: 4 − 2 − 1 = 1), built by the law of cosines in tests/mechanise/known-linkage.ts
     const p = plan(knownLinkageSchedule());
     expect(p.status).toBe('done');
@@ -67,7 +67,7 @@ describe('toSchedule: plate-count limits', () => {
 
 describe('toSchedule: link limits', () => {
   it('defaults the shortest link to two pin holes and a ligament: 4 + 3 = 7 mm', () => {
-    // the same rule as the shortest plate (DOMAIN.md §2: hole and ligament round every pin)
+    // the same rule as the shortest plate (docs/MODEL.md §2: hole and ligament round every pin)
     const m = toSchedule(knownLinkageSchedule() as never);
     expect(m.ok && m.schedule.links).toEqual({ minLengthMm: 7, maxLengthMm: 200 });
   });

@@ -23,7 +23,7 @@ describe('checkProcess: land pressure against worked examples', () => {
   });
 
   it('a power-law melt (n 0.5, m 10 000 Pa·s^0.5) through the same slit needs 12.6 bar', () => {
-    // Power-law slit (Tadmor & Gogos; DOMAIN.md §3) solved for ΔP, worked by hand:
+    // Power-law slit (Tadmor & Gogos; docs/MODEL.md §3) solved for ΔP, worked by hand:
     // q = Q/W = 1e-6/0.05 = 2e-5 m²/s; ΔP = (2mL/H)·(2(2n+1)q/(nH²))^n
     //   = (2·10 000·0.02/0.002) · (2·2·2e-5/(0.5·4e-6))^0.5 = 200 000 · 40^0.5 = 200 000 · 6.32456 = 1.26491e6 Pa
     //   = 12.649 bar. (With n = 1 the same formula reduces to 12μLq/H³, the case above.)
@@ -36,7 +36,8 @@ describe('checkProcess: land pressure against worked examples', () => {
 });
 
 describe('checkProcess: draw-down and puller speed against a hand-worked example', () => {
-  // DOMAIN.md §5: PVC-U ρ 1400 kg/m³, 400 mm² product at 3 m/min → ṁ = 1400 · 400e-6 · 0.05 = 0.028 kg/s = 100.8 kg/h.
+  // docs/MODEL.md §5: PVC-U ρ 1400 kg/m³, 400 mm² product at 3 m/min →
+  // ṁ = 1400 · 400e-6 · 0.05 = 0.028 kg/s = 100.8 kg/h.
   // An orifice of 460 mm² then has ADR 460/400 = 1.15; twice that orifice (920 mm²) at the same output holds 1.15
   // only at half the puller speed, 1.5 m/min. Melt ρ 1250: melt speed 0.028/(1250 · 460e-6) = 0.04870 m/s;
   // velocity draw 1.15 · 1250/1400 = 1.0268. All worked by hand.
@@ -80,13 +81,13 @@ describe('checkProcess: draw-down and puller speed against a hand-worked example
 describe('checkProcess: wall ratio and flow imbalance', () => {
   const pvc = scheduleForTest({ process: { powerLawN: 0.26, powerLawMPaSn: 170_000, throughputKgPerS: 0.005 } });
 
-  it('flags walls 2 mm vs 1 mm at n 0.26 as FLOW_IMBALANCE about 57.5× (DOMAIN.md §5: 2^(2+1/n) = 57.53)', () => {
+  it('flags walls 2 mm vs 1 mm at n 0.26 as FLOW_IMBALANCE about 57.5× (docs/MODEL.md §5: 2^(2+1/n) = 57.53)', () => {
     const check = checkProcess(pvc, [measures({ areaMm2: 100, perimeterMm: 100, minWallMm: 1, maxWallMm: 2 })]);
     const f = check.findings.find((x) => x.code === 'FLOW_IMBALANCE');
     expect(f?.value).toBeCloseTo(57.53, 2);
     expect(f?.limit).toBe(5);
     expect(f?.message).toContain('about 57.5× faster');
-    // land ratio that balances it: 2^(1+2n) = 2^1.52 = 2.868 (DOMAIN.md §5, halving a gap at constant Q)
+    // land ratio that balances it: 2^(1+2n) = 2^1.52 = 2.868 (docs/MODEL.md §5, halving a gap at constant Q)
     expect(f?.message).toContain('about 2.87× longer');
     expect(codes(check.findings)).not.toContain('WALL_RATIO'); // ratio 2 is within the 2.5 default
   });

@@ -10,7 +10,7 @@ import {
 
 describe('mass balance', () => {
   it('massFlowKgPerS(PVC-U 1400 kg/m³, 400 mm², 3 m/min) is 100.8 kg/h', () => {
-    // DOMAIN.md §5: ṁ = ρAv = 1400 · 400e-6 · 0.05 kg/s = 0.028 kg/s = 100.8 kg/h [derived]
+    // docs/MODEL.md §5: ṁ = ρAv = 1400 · 400e-6 · 0.05 kg/s = 0.028 kg/s = 100.8 kg/h [derived]
     expect(massFlowKgPerS(1400, 400, 3 / 60) * 3600).toBeCloseTo(100.8, 9);
   });
 
@@ -22,17 +22,17 @@ describe('mass balance', () => {
 
 describe('draw ratios', () => {
   it('velocityDrawRatio(HDPE ADR 1.25, ρ 0.76 melt, 0.95 solid) is 1.00', () => {
-    // DOMAIN.md §5: velocity draw = ADR·ρ_melt/ρ_solid = 1.25·0.76/0.95 = 1.00 [derived]; densities [mem]
+    // docs/MODEL.md §5: velocity draw = ADR·ρ_melt/ρ_solid = 1.25·0.76/0.95 = 1.00 [derived]; densities [mem]
     expect(velocityDrawRatio(1.25, 760, 950)).toBeCloseTo(1.0, 12);
   });
 
   it('areaDrawDownRatio is orifice over product area', () => {
-    // definition of the area draw-down ratio (DOMAIN.md §3)
+    // definition of the area draw-down ratio (docs/MODEL.md §3)
     expect(areaDrawDownRatio(500, 400)).toBeCloseTo(1.25, 12);
   });
 
   it('throughputForDrawDown(460 mm², ADR 1.15, PVC-U 1400 kg/m³, 3 m/min) is 100.8 kg/h', () => {
-    // worked by hand from DOMAIN.md §5: product area 460/1.15 = 400 mm²; ṁ = 1400 · 400e-6 · 0.05 = 0.028 kg/s
+    // worked by hand from docs/MODEL.md §5: product area 460/1.15 = 400 mm²; ṁ = 1400 · 400e-6 · 0.05 = 0.028 kg/s
     expect(throughputForDrawDown(460, 1.15, 1400, 0.05) * 3600).toBeCloseTo(100.8, 9);
   });
 

@@ -2,10 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { MATERIAL_PRESETS } from '../../src/domain/index.js';
 
 // The reference table, written out here (not read from the code). Solid densities, g/cm³: polymer handbooks as
-// quoted in DOMAIN.md §5. Power-law index n: Osswald, Polymer Processing Fundamentals, as quoted in DOMAIN.md §5
-// [mem]. Draw-down ranges: DOMAIN.md §5, about 1.0–1.2 rigid PVC, 1.1–1.5 polyolefins and TPE [mem]. Wall tolerance:
-// published extrusion tolerance charts, ±8 % rigid PVC, PS, ABS, PP, ±10 % flexible PVC and PE (common practice).
-// PVC-U melt 160–210 °C: DOMAIN.md §4.
+// quoted in docs/MODEL.md §5. Power-law index n: Osswald, Polymer Processing Fundamentals, as quoted in
+// docs/MODEL.md §5 [mem]. Draw-down ranges: docs/MODEL.md §5, about 1.0–1.2 rigid PVC, 1.1–1.5 polyolefins and TPE
+// [mem]. Wall tolerance: published extrusion tolerance charts, ±8 % rigid PVC, PS, ABS, PP, ±10 % flexible PVC and PE
+// (common practice). PVC-U melt 160–210 °C: docs/MODEL.md §4.
 const HANDBOOK = {
   'PVC-U': { density: [1.3, 1.45], n: 0.26, drawDown: [1.0, 1.2], wallTolerance: 0.08 },
   HDPE: { density: [0.94, 0.965], n: 0.41, drawDown: [1.1, 1.5], wallTolerance: 0.1 },
@@ -49,13 +49,13 @@ describe('MATERIAL_PRESETS against the handbook table', () => {
     }
   });
 
-  it('every melt is lighter than its solid (polymers expand when they melt); HDPE 0.76 vs 0.95 (DOMAIN.md §5 [mem])', () => {
+  it('every melt is lighter than its solid (polymers expand when they melt); HDPE 0.76 vs 0.95 (docs/MODEL.md §5 [mem])', () => {
     for (const p of Object.values(MATERIAL_PRESETS))
       expect(p.meltDensityGPerCm3, p.name).toBeLessThan(p.solidDensityGPerCm3);
     expect(MATERIAL_PRESETS.HDPE.meltDensityGPerCm3).toBeCloseTo(0.76, 12);
   });
 
-  it('PVC-U’s die temperature lies in the 160–210 °C melt range (DOMAIN.md §4)', () => {
+  it('PVC-U’s die temperature lies in the 160–210 °C melt range (docs/MODEL.md §4)', () => {
     expect(MATERIAL_PRESETS['PVC-U'].dieTemperatureC).toBeGreaterThanOrEqual(160);
     expect(MATERIAL_PRESETS['PVC-U'].dieTemperatureC).toBeLessThanOrEqual(210);
   });

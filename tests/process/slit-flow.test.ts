@@ -18,7 +18,7 @@ describe('power-law slit flow', () => {
   });
 
   it('slitFlowRatioAtEqualPressure(2 mm vs 1 mm) is 8.0 for n 1 and 57.53 for n 0.26', () => {
-    // DOMAIN.md §5: q ∝ H^(2+1/n) at equal ΔP/L [derived from Tadmor & Gogos' slit formula]
+    // docs/MODEL.md §5: q ∝ H^(2+1/n) at equal ΔP/L [derived from Tadmor & Gogos' slit formula]
     expect(slitFlowRatioAtEqualPressure(2, 1, 1)).toBeCloseTo(8.0, 10);
     expect(slitFlowRatioAtEqualPressure(2, 1, 0.26)).toBeCloseTo(57.53, 2);
     // the same ratio straight from the full formula at equal pressure
@@ -27,7 +27,7 @@ describe('power-law slit flow', () => {
   });
 
   it('slitPressureRatioAtEqualFlow(halving a gap) is 8 for n 1 and 2.868 for n 0.26', () => {
-    // DOMAIN.md §5: ΔP ∝ H^−(1+2n) at constant q [derived]
+    // docs/MODEL.md §5: ΔP ∝ H^−(1+2n) at constant q [derived]
     expect(slitPressureRatioAtEqualFlow(2, 1, 1)).toBeCloseTo(8, 10);
     expect(slitPressureRatioAtEqualFlow(2, 1, 0.26)).toBeCloseTo(2.868, 3);
   });

@@ -20,7 +20,7 @@ describe('processCautions', () => {
     },
   );
 
-  it('PVC-U: melt 160–210 °C and HCl from about 170–180 °C, faster above 200 °C (DOMAIN.md §4)', () => {
+  it('PVC-U: melt 160–210 °C and HCl from about 170–180 °C, faster above 200 °C (docs/MODEL.md §4)', () => {
     const c = byCode('PVC-U', 190);
     expect(c.get('HOT_MELT')?.message).toContain('160–210 °C');
     expect(c.get('HOT_MELT')?.message).toContain('set to 190 °C');

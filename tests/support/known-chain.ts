@@ -1,7 +1,7 @@
 /**
- * Stations made from a known chain with the die model of DOMAIN.md §2, computed here independently of src/: the melt
- * edge is the pivot polyline swollen by e (a capsule of radius e round every plate), the orifice is the channel below
- * it. The chain's last two angles close it onto the end pivot by two-link inverse kinematics (law of cosines).
+ * Stations made from a known chain with the die model of docs/MODEL.md §2, computed here independently of src/: the
+ * melt edge is the pivot polyline swollen by e (a capsule of radius e round every plate), the orifice is the channel
+ * below it. The chain's last two angles close it onto the end pivot by two-link inverse kinematics (law of cosines).
  */
 export type P = [number, number];
 

@@ -2,7 +2,7 @@
  * Random exact mechanisms and their orifice schedules, built here independently of src/ for round-trip tests of the
  * planner (fit a chain, add binary links and actuators, and get the truth back).
  *
- * The die model is that of tests/support/known-chain.ts (DOMAIN.md §2): a flat-floored channel 0 ≤ x ≤ W, floor
+ * The die model is that of tests/support/known-chain.ts (docs/MODEL.md §2): a flat-floored channel 0 ≤ x ≤ W, floor
  * y = 0, closed above by a chain of N straight plates pinned to the die body just outside both walls; the melt edge is
  * the pivot polyline swollen by e = hole radius + ligament (a capsule of radius e round every plate), the orifice the
  * channel below it. What is generated is a one-degree-of-freedom mechanism built by sequential dyads, every position

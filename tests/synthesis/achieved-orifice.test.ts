@@ -126,7 +126,7 @@ describe('the achieved orifice of a fitted known chain', () => {
   });
 
   it('every plate keeps its pivot-to-pivot length at every station (rigid plates) to 1e-9 mm', () => {
-    // reference: the fitted common lengths fit.chain.lengthsMm, the plates being rigid (DOMAIN.md §3)
+    // reference: the fitted common lengths fit.chain.lengthsMm, the plates being rigid (docs/MODEL.md §3)
     for (const pivots of fit.chain.pivots) {
       fit.chain.lengthsMm.forEach((length, k) => {
         const a = pivots[k]!;

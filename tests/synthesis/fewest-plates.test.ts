@@ -33,7 +33,7 @@ describe('fitChain: the fewest plates, shown by evidence at one plate fewer', ()
   const fit = fitChain(orifices, spans, options);
 
   it('recovers the 4 plates of the known chain and their lengths within 0.05 mm', () => {
-    // self-consistent case (DOMAIN.md §5): the stations were made from plates 12, 14, 16, 16 mm long
+    // self-consistent case (docs/MODEL.md §5): the stations were made from plates 12, 14, 16, 16 mm long
     expect(fit.status).toBe('fitted');
     expect(fit.plateCount).toBe(4);
     fit.chain.lengthsMm.forEach((l, k) => {

@@ -27,7 +27,7 @@ function arcOrifice(r: number, sweepDeg: number, step = 0.05): Region {
 
 describe('fitChain', () => {
   it('an arc of radius R over θ needs the plate count the sagitta formula predicts', () => {
-    // standard geometry (DOMAIN.md §5): chords of a pivot circle R + e deviate from the arc by their sagitta
+    // standard geometry (docs/MODEL.md §5): chords of a pivot circle R + e deviate from the arc by their sagitta
     // (R + e)(1 − cos(Δ/2)). Pivots on the circle (inscribed polygon) need Δ ≤ 2·acos(1 − tol/(R + e)); a least-squares
     // fit that sets the pivots just outside the circle splits the sagitta into ±tol, i.e. allows 2·tol. So the count
     // lies between ceil(θ/Δ(2·tol)) and ceil(θ/Δ(tol)), plus at most one plate at each end where the chain crosses
@@ -56,9 +56,9 @@ describe('fitChain', () => {
   });
 
   it('the error of straight plates falls as 1/n² (sagitta law)', () => {
-    // sagitta s ≈ L²/(8R) (DOMAIN.md §5): doubling the plate count quarters the deviation; the two end plates, which
-    // cross the die-body walls and are not chords of the arc, hold it a little above a quarter (ratio > 2.5, not 4),
-    // while a first-order (1/n) law would give 2
+    // sagitta s ≈ L²/(8R) (docs/MODEL.md §5): doubling the plate count quarters the deviation; the two end plates,
+    // which cross the die-body walls and are not chords of the arc, hold it a little above a quarter
+    // (ratio > 2.5, not 4), while a first-order (1/n) law would give 2
     const r = 40;
     const orifice = arcOrifice(r, 90);
     const half = Math.PI / 4;
@@ -86,7 +86,7 @@ describe('fitChain', () => {
   });
 
   it('stations made from a known chain are fitted back to its plate count and lengths', () => {
-    // self-consistent case (DOMAIN.md §5): the die model computed independently in tests/support/known-chain.ts
+    // self-consistent case (docs/MODEL.md §5): the die model computed independently in tests/support/known-chain.ts
     const lengths = [11, 9, 10, 8.5, 9.5, 10.5];
     const start: P = [-6, 14];
     const end: P = [46, 14];
@@ -123,7 +123,7 @@ describe('fitChain', () => {
 describe('movable chains', () => {
   it('never returns a chain that cannot move when the stations differ (a raised flat top needs ≥ 1 freedom)', () => {
     // Grübler–Kutzbach for a chain pinned at its start: M = N − 2 + (slotted ends) + (telescoping pairs); one plate
-    // with a slotted end has M = 0 and could only reach both stations by being taken apart (DOMAIN.md §3)
+    // with a slotted end has M = 0 and could only reach both stations by being taken apart (docs/MODEL.md §3)
     const rect = (h: number): Region => ({
       outer: [
         [0, 0],
@@ -149,7 +149,7 @@ describe('shaped edges', () => {
   it('beat straight edges when the stations share curvature', () => {
     // two stations with the same crown y = 8 + 4·sin²(πx/40): every plate meets the same curve, so an edge shaped to
     // the mean of the stations' pieces follows it between the round ends, while a straight edge misses by its
-    // sagitta ≈ L²/(8R) (DOMAIN.md §2 and §5); what shaped edges leave is the round ends' own departure near pivots
+    // sagitta ≈ L²/(8R) (docs/MODEL.md §2 and §5); what shaped edges leave is the round ends' own departure near pivots
     const crown: Point[] = [];
     for (let k = 400; k >= 0; k--) {
       const x = k / 10;
@@ -197,7 +197,7 @@ describe('telescoping plates', () => {
 
 describe('the chain least-squares problem', () => {
   it('recovers a known chain to 1e-6 mm from samples exactly on its swollen melt edge', async () => {
-    // samples placed analytically at distance e from the known pivot polyline (DOMAIN.md §2 die model)
+    // samples placed analytically at distance e from the known pivot polyline (docs/MODEL.md §2 die model)
     const { makeChainProblem } = await import('../../src/synthesis/index.js');
     const { solveLeastSquares } = await import('../../src/numeric/index.js');
     const { meltEdgeY } = await import('../support/known-chain.js');

@@ -281,7 +281,7 @@ describe('randomMechanism (the generator alone, checked against facts computed h
   });
 
   it('links are 10–200 mm long, their pins lie in the plate bodies and their ground pivots in the die body', () => {
-    // the die model of DOMAIN.md §2: a pin keeps e of steel from the pivot line and from the back edge, which lies
+    // the die model of docs/MODEL.md §2: a pin keeps e of steel from the pivot line and from the back edge, which lies
     // depth − e behind it, and a hole diameter plus a ligament from each pivot; a ground pivot lies outside the
     // channel [0, W] × [0, H] by more than e and within 80 mm of the opening's bounding box
     const pinInBody = (pin: P, length: number) =>

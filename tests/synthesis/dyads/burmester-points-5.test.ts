@@ -58,7 +58,7 @@ describe('burmesterPoints5', () => {
   });
 
   it('the known ground pivots A0 and B0 with moving pivots A and B are among them (1e-6 mm)', () => {
-    // self-consistent case (DOMAIN.md §5): the four-bar that made the positions is a Burmester pair twice over
+    // self-consistent case (docs/MODEL.md §5): the four-bar that made the positions is a Burmester pair twice over
     expectKnownDyads(result.pairs, 1e-6);
   });
 

@@ -17,7 +17,7 @@ describe('centrePointCurve4', () => {
   });
 
   it('the known ground pivots A0 and B0 lie on the sampled curve, with the known moving pivots', () => {
-    // self-consistent case (DOMAIN.md §5): a four-bar's pivots are dyads for any of its coupler positions
+    // self-consistent case (docs/MODEL.md §5): a four-bar's pivots are dyads for any of its coupler positions
     for (const [g, m] of [
       [A0, A_LOCAL],
       [B0, B_LOCAL],

@@ -70,7 +70,7 @@ describe('centrePointFor3', () => {
   });
 
   it('a slider-crank slider pin at three stations reports collinear', () => {
-    // slider-crank r 40, l 120, e 0 (DOMAIN.md §5): the pin B runs on the x-axis
+    // slider-crank r 40, l 120, e 0 (docs/MODEL.md §5): the pin B runs on the x-axis
     const poses = [10, 40, 70].map((deg): RelativePose => {
       const t = (deg * Math.PI) / 180;
       const a: [number, number] = [40 * Math.cos(t), 40 * Math.sin(t)];

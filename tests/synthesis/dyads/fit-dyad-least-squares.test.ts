@@ -17,7 +17,7 @@ const perturbed: RelativePose[] = eight.map((p, i) => ({
 
 describe('fitDyadLeastSquares', () => {
   it('recovers the crank pivots of a known four-bar from 8 stations with ~0 residual', () => {
-    // self-consistent case (DOMAIN.md §5); Kåsa fit alternated with the circle-point solve, then LM
+    // self-consistent case (docs/MODEL.md §5); Kåsa fit alternated with the circle-point solve, then LM
     const fit = fitDyadLeastSquares(eight, { circlePointLocal: [A_LOCAL[0] + 3, A_LOCAL[1] - 2] });
     expect(fit.status).toBe('converged');
     expect(dist(fit.centre, A0)).toBeLessThan(1e-8);

@@ -8,7 +8,7 @@ import {
 import { circumcentre, dist, type P, place } from './known-four-bar.js';
 
 /**
- * Published linkage: Norton, *Design of Machinery*, Example 4-1 [mem] (the values of DOMAIN.md §5): crank a = |O2A|
+ * Published linkage: Norton, *Design of Machinery*, Example 4-1 [mem] (the values of docs/MODEL.md §5): crank a = |O2A|
  * = 40, coupler b = |AB| = 120, rocker c = |O4B| = 80, ground d = |O2O4| = 100 along the x-axis from O2 = (0, 0). At
  * θ2 = 40° the open circuit has θ3 = 20.2979°, θ4 = 57.3249°, the crossed circuit θ3 = −60.9780°, θ4 = −98.0050°.
  * Those recalled angles are checked first against Freudenstein's closed form (Trans. ASME 77, 1955, in the form of

@@ -16,7 +16,7 @@ describe('sliderDyad', () => {
   const poses = rodPoses(stations);
 
   it('the slider pin of a slider-crank runs on the x-axis; at θ 40° it sits at x = 147.8549', () => {
-    // slider-crank r 40, l 120, e 0, θ 40° → slider x 147.8549 (DOMAIN.md §5, closed form)
+    // slider-crank r 40, l 120, e 0, θ 40° → slider x 147.8549 (docs/MODEL.md §5, closed form)
     const s = sliderDyad(poses, [120, 0]);
     expect(s.status).toBe('ok');
     expect(s.residualMaxMm).toBeLessThan(1e-9);
