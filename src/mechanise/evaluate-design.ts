@@ -65,7 +65,7 @@ export function evaluateDesign(
     const overlaps = clearance.linkOverlaps();
     const ids = named.map((l) => l.id);
     const order = overlaps.length > 0 ? linkLayerOrder(ids, overlaps) : null;
-    if (order && order.some((id, k) => id !== ids[k])) {
+    if (order?.some((id, k) => id !== ids[k])) {
       const restacked = order.map((id) => links[ids.indexOf(id)]!);
       return evaluateDesign(context, restacked, actuators, chainBodies, true);
     }
