@@ -30,6 +30,8 @@ export interface AppOptions {
   readonly store?: PlanStore;
   /** How long a slow or idle client may hold a connection (tests shorten them). @default SERVER_TIMEOUTS */
   readonly timeouts?: Partial<ServerTimeouts>;
+  /** Seconds after which a plan's chain search stops with what it has. @default 20 */
+  readonly planTimeLimitS?: number;
 }
 
 /** How long a client may take, ms; a slow client cannot hold a connection longer. */
@@ -174,7 +176,13 @@ export async function buildApp(options: AppOptions) {
   await app.register(fastifySwagger, { openapi: openapiInfo(SERVICE_VERSION), transform: jsonSchemaTransform });
   await app.register(healthRoutes);
   await app.register(checkRoutes);
-  await app.register(planRoutes(options.store ?? new MemoryPlanStore(), () => new Date(options.now?.() ?? Date.now())));
+  await app.register(
+    planRoutes(
+      options.store ?? new MemoryPlanStore(),
+      () => new Date(options.now?.() ?? Date.now()),
+      options.planTimeLimitS ?? 20,
+    ),
+  );
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app;
 }

@@ -10,6 +10,11 @@ export interface Config {
   readonly logLevel: string;
   /** Requests per minute allowed from one client address; 0 turns the limit off. @default 600 */
   readonly rateLimitPerMinute: number;
+  /**
+   * Seconds after which a plan's chain search stops with what it has (plans are computed inside the request until
+   * they move to background jobs). @default 20
+   */
+  readonly planTimeLimitS: number;
 }
 
 export function loadConfig(env: Readonly<Record<string, string | undefined>>): Config {
@@ -24,5 +29,16 @@ export function loadConfig(env: Readonly<Record<string, string | undefined>>): C
   if (!Number.isInteger(rate) || rate < 0) {
     throw new Error(`RATE_LIMIT_PER_MINUTE must be a whole number, 0 for no limit, got "${env.RATE_LIMIT_PER_MINUTE}"`);
   }
-  return { host: env.HOST || '127.0.0.1', port, logLevel: env.LOG_LEVEL || 'info', rateLimitPerMinute: rate };
+  const limit =
+    env.PLAN_TIME_LIMIT_S === undefined || env.PLAN_TIME_LIMIT_S === '' ? 20 : Number(env.PLAN_TIME_LIMIT_S);
+  if (!(Number.isFinite(limit) && limit > 0)) {
+    throw new Error(`PLAN_TIME_LIMIT_S must be a number of seconds above 0, got "${env.PLAN_TIME_LIMIT_S}"`);
+  }
+  return {
+    host: env.HOST || '127.0.0.1',
+    port,
+    logLevel: env.LOG_LEVEL || 'info',
+    rateLimitPerMinute: rate,
+    planTimeLimitS: limit,
+  };
 }

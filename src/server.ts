@@ -8,7 +8,11 @@ const logger = pino({
   formatters: { level: (label) => ({ level: label }) },
   redact: ['req.headers.authorization'],
 });
-const app = await buildApp({ logger, rateLimitPerMinute: config.rateLimitPerMinute });
+const app = await buildApp({
+  logger,
+  rateLimitPerMinute: config.rateLimitPerMinute,
+  planTimeLimitS: config.planTimeLimitS,
+});
 try {
   await app.listen({ host: config.host, port: config.port });
 } catch (err) {

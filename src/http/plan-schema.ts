@@ -83,6 +83,7 @@ export const ChainWire = z.object({
       lowest_plate_count_tried: z.number().int(),
       highest_plate_count_tried: z.number().int(),
       forms: z.array(z.string()),
+      stopped_early: z.boolean().describe('the plan’s time limit ended the search before it was complete'),
       below_answer: z
         .object({
           plate_count: z.number().int(),
@@ -156,9 +157,9 @@ export const MechanisationWire = z.object({
 
 export const ChainTriedWire = z.object({
   variant: z.string().describe('what differs from the schedule’s own settings'),
-  plate_count: z.number().int(),
+  plate_count: z.number().int().nullable().describe('null when the chain was not fitted (time limit)'),
   fit_status: z.enum(['fitted', 'best-effort']),
-  max_deviation_mm: z.number(),
+  max_deviation_mm: z.number().nullable(),
   chain_degrees_of_freedom: z.number().int().nullable(),
   mechanised: z.boolean(),
   actuator_count: z.number().int().nullable(),

@@ -44,9 +44,9 @@ export function toPlanReport(record: PlanRecord): PlanReport {
     outcome: { meets_request: plan.outcome.meetsRequest, shortfalls: [...plan.outcome.shortfalls] },
     chains_tried: plan.chainsTried.map((c) => ({
       variant: c.variant,
-      plate_count: c.plateCount,
+      plate_count: Number.isFinite(c.plateCount) ? c.plateCount : null,
       fit_status: c.fitStatus,
-      max_deviation_mm: mm(c.maxDeviationMm),
+      max_deviation_mm: Number.isFinite(c.maxDeviationMm) ? mm(c.maxDeviationMm) : null,
       chain_degrees_of_freedom: Number.isFinite(c.chainDegreesOfFreedom) ? c.chainDegreesOfFreedom : null,
       mechanised: c.mechanised,
       actuator_count: c.actuatorCount,
@@ -74,6 +74,7 @@ export function toPlanReport(record: PlanRecord): PlanReport {
             lowest_plate_count_tried: fit.search.lowestTried,
             highest_plate_count_tried: fit.search.highestTried,
             forms: [...fit.search.forms],
+            stopped_early: fit.search.stoppedEarly,
             below_answer: fit.search.belowAnswer
               ? {
                   plate_count: fit.search.belowAnswer.plateCount,

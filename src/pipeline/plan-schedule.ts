@@ -27,6 +27,15 @@ export interface PlanOutcome {
   readonly shortfalls: readonly string[];
 }
 
+/** How the caller bounds a plan. */
+export interface PlanSettings {
+  /**
+   * Asked between search steps: true ends the chain search with what it has, and no further chains are tried (the
+   * caller's time limit; the core reads no clock). @default never
+   */
+  readonly stop?: () => boolean;
+}
+
 /** A plan: the check, the fitted chain and the mechanism built from it, or why it stopped. */
 export interface Plan {
   /**
@@ -61,7 +70,8 @@ export interface Plan {
  * and carries the mechanism with the fewest actuators found over all chains tried, fully built. A plan whose stations cannot be reconciled into one moving span, or with fewer
  * than two stations, fails with the reason and the check's findings.
  */
-export function planSchedule(schedule: Schedule): Plan {
+export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): Plan {
+  const stop = settings.stop ?? (() => false);
   const check = checkSchedule(schedule);
   const base = { check, cautions: check.cautions };
   if (schedule.stations.length < 2) {
@@ -82,6 +92,7 @@ export function planSchedule(schedule: Schedule): Plan {
     pivotHoleDiameterMm: schedule.plates.pivotHoleDiameterMm,
     ligamentMm: schedule.plates.ligamentMm,
     depthMm: schedule.plates.depthMm,
+    stop,
   });
   const request = {
     actuatorCount: schedule.actuators.count,
@@ -141,6 +152,19 @@ export function planSchedule(schedule: Schedule): Plan {
   // when nothing meets the request, the chain that the fewest actuators drive is the fallback
   let fallback = { fit, mechanisation: first, row: 0 };
   for (const variant of variants) {
+    if (stop()) {
+      tried.push({
+        variant: variant.name,
+        plateCount: Number.NaN,
+        fitStatus: 'best-effort',
+        maxDeviationMm: Number.NaN,
+        chainDegreesOfFreedom: Number.NaN,
+        mechanised: false,
+        actuatorCount: null,
+        verdict: 'not tried: the plan reached its time limit',
+      });
+      continue;
+    }
     const other = fitWith(variant.options);
     if (other.status !== 'fitted') {
       tried.push({

@@ -54,6 +54,11 @@ export interface ChainFitOptions {
   readonly allowTelescoping: boolean;
   /** May plates carry shaped edges (common to all stations) when straight edges miss? @default true */
   readonly shapedEdges: boolean;
+  /**
+   * Asked before each further plate count: true ends the search there with what it has (the caller's time limit; the
+   * core reads no clock). @default never
+   */
+  readonly stop: () => boolean;
 }
 
 function describeForm(spec: Pick<ChainProblemSpec, 'startKind' | 'endKind' | 'telescoping'>): string {
@@ -83,6 +88,7 @@ export function resolveChainFitOptions(
     allowSlots: true,
     allowTelescoping: true,
     shapedEdges: true,
+    stop: () => false,
     ...partial,
   };
 }
@@ -156,6 +162,8 @@ export interface PlateCountSearch {
    * answer is the plate count asked for, the lower bound, or the search found no passing chain.
    */
   readonly belowAnswer: { readonly plateCount: number; readonly starts: number; readonly bestMissMm: number } | null;
+  /** The caller's stop ended the search before it was complete (upward to a pass, or downward to a miss). */
+  readonly stoppedEarly: boolean;
 }
 
 /**
@@ -368,7 +376,12 @@ function fitDistinctStations(
     live = live.filter((c) => c.form.telescoping.length === 0 || c === keep);
   }
   const last = options.plateCount ?? options.maxPlates;
-  for (let n = lowest + 1; winner === null && n <= last; n++) {
+  let stoppedEarly = false;
+  const stopNow = () => {
+    if (options.stop()) stoppedEarly = true;
+    return stoppedEarly;
+  };
+  for (let n = lowest + 1; winner === null && n <= last && !stopNow(); n++) {
     // as at the first level, the first form (in order of simplicity) that passes ends the level: the forms after it
     // could not win
     const next: Candidate[] = [];
@@ -400,7 +413,7 @@ function fitDistinctStations(
   if (winner && options.plateCount === null) {
     for (;;) {
       const m = winner.solved.spec.plateCount - 1;
-      if (m < Math.max(1, options.minPlates)) break;
+      if (m < Math.max(1, options.minPlates) || stopNow()) break;
       const tries: Candidate[] = [];
       const plainWinner: ChainProblemSpec = {
         ...winner.solved.spec,
@@ -459,6 +472,7 @@ function fitDistinctStations(
       winner && belowAttempts.length > 0
         ? { plateCount: below, starts: belowAttempts.length, bestMissMm: Math.min(...belowAttempts.map(missOf)) }
         : null,
+    stoppedEarly,
   };
   const findings = fitFindings(rigidified, fits, orifices, status, options, startKind, endKind, spans, search);
   return {
@@ -842,6 +856,17 @@ function fitFindings(
     search.lowestTried === search.highestTried
       ? `${search.lowestTried} plates`
       : `${search.lowestTried} to ${search.highestTried} plates`;
+  if (search.stoppedEarly) {
+    findings.push({
+      code: 'FIT_SEARCH_STOPPED',
+      severity: 'warning',
+      value: search.highestTried,
+      message:
+        status === 'fitted'
+          ? `The plate-count search reached its time limit after passing with ${n} plates and before it could show that fewer miss (it tried ${searched}): a chain of fewer plates may exist.`
+          : `The plate-count search reached its time limit after ${searched} without a chain that meets the tolerance: more plates than it reached may. Plan a smaller schedule, or fix the count with limits.plate_count.`,
+    });
+  }
   if (status === 'fitted') {
     const b = search.belowAnswer;
     findings.push({
@@ -852,7 +877,9 @@ function fitFindings(
         options.plateCount !== null
           ? `${n} plates, as limits.plate_count asks; fewer were not searched.`
           : b === null
-            ? `${n} plates, the fewest the search allowed (limits.min_plates ${options.minPlates}).`
+            ? search.stoppedEarly
+              ? `${n} plates; fewer were not tried before the search's time limit.`
+              : `${n} plates, the fewest the search allowed (limits.min_plates ${options.minPlates}).`
             : `${n} plates is the fewest found: with ${b.plateCount} the best of ${b.starts} independent starts misses by ${Number.isFinite(b.bestMissMm) ? `${fmt(b.bestMissMm)} mm` : 'a chain that does not close'} (tolerance ${options.toleranceMm} mm). This is evidence from local fits, not a proof.`,
     });
   }

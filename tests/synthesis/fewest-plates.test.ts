@@ -165,3 +165,23 @@ describe('mergePlatesStart', () => {
     expect(mergePlatesStart(x, spec, 2)).toBeNull();
   });
 });
+
+describe('fitChain under a caller’s stop (time limit)', () => {
+  it('stopped at once, it keeps the first count that passed and says fewer were not tried', () => {
+    // the same known 4-plate chain: its first level (5 plates, from the marching estimate) already passes
+    const fit = fitChain(orifices, spans, { ...options, stop: () => true });
+    expect(fit.status).toBe('fitted');
+    expect(fit.plateCount).toBe(5);
+    expect(fit.search.stoppedEarly).toBe(true);
+    expect(fit.search.belowAnswer).toBeNull();
+    const codes = fit.findings.map((f) => f.code);
+    expect(codes).toContain('FIT_SEARCH_STOPPED');
+    expect(fit.findings.find((f) => f.code === 'PLATE_COUNT')!.message).toMatch(/fewer were not tried/);
+  });
+
+  it('never stopped, it reports a complete search', () => {
+    const fit = fitChain(orifices, spans, options);
+    expect(fit.search.stoppedEarly).toBe(false);
+    expect(fit.findings.map((f) => f.code)).not.toContain('FIT_SEARCH_STOPPED');
+  });
+});

@@ -14,7 +14,7 @@ import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-
  * `POST /v1/plans` and `GET /v1/plans/{id}`. The plan is computed before the answer (the job queue comes with the
  * service work); the record is stored whole, so a failure leaves nothing half-written.
  */
-export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyncZod {
+export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number): FastifyPluginAsyncZod {
   return async (app) => {
     app.post(
       '/v1/plans',
@@ -39,7 +39,8 @@ export function planRoutes(store: PlanStore, now: () => Date): FastifyPluginAsyn
           });
         }
         const started = performance.now();
-        const computed = planSchedule(schedule);
+        // the chain search stops at the time limit with what it has (and says so), so no plan holds the server long
+        const computed = planSchedule(schedule, { stop: () => performance.now() - started > timeLimitS * 1000 });
         const plan = { ...computed, findings: [...unknownScheduleFields(request, 'plans'), ...computed.findings] };
         const id = randomUUID();
         // checked before it is stored: a plan that could not be written out is stored as failed, with the reason
