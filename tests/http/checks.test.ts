@@ -1,18 +1,11 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { fixture, makeTestApp } from '../support/test-app.js';
+import { describe, expect, it } from 'vitest';
+import { fixture, useTestApp } from '../support/test-app.js';
 
-type App = Awaited<ReturnType<typeof makeTestApp>>;
-let app: App;
-beforeAll(async () => {
-  app = await makeTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const testApp = useTestApp();
 
 const post = (body: unknown) =>
-  request(app.server).post('/v1/checks').set('content-type', 'application/json').send(JSON.stringify(body));
+  request(testApp().server).post('/v1/checks').set('content-type', 'application/json').send(JSON.stringify(body));
 
 describe('POST /v1/checks', () => {
   it('measures every station of the demo schedule and carries the safety cautions', async () => {
@@ -110,7 +103,7 @@ describe('POST /v1/checks', () => {
   });
 
   it('rejects malformed JSON with 400 malformed_json', async () => {
-    const res = await request(app.server)
+    const res = await request(testApp().server)
       .post('/v1/checks')
       .set('content-type', 'application/json')
       .send('{"stations": [');
@@ -161,26 +154,26 @@ describe('POST /v1/checks', () => {
 
   it('answers 413 to an oversized body', async () => {
     const huge = JSON.stringify({ stations: [], padding: 'x'.repeat(6 * 1024 * 1024) });
-    const res = await request(app.server).post('/v1/checks').set('content-type', 'application/json').send(huge);
+    const res = await request(testApp().server).post('/v1/checks').set('content-type', 'application/json').send(huge);
     expect(res.status).toBe(413);
     expect(res.body.error).toBe('body_too_large');
   });
 
   it('answers 415 to a body that is not JSON', async () => {
-    const res = await request(app.server).post('/v1/checks').set('content-type', 'text/plain').send('hello');
+    const res = await request(testApp().server).post('/v1/checks').set('content-type', 'text/plain').send('hello');
     expect(res.status).toBe(415);
   });
 });
 
 describe('service routes', () => {
   it('GET /healthz answers ok', async () => {
-    const res = await request(app.server).get('/healthz');
+    const res = await request(testApp().server).get('/healthz');
     expect(res.status).toBe(200);
     expect(res.body.status).toBe('ok');
   });
 
   it('unknown routes answer 404 from the catalogue', async () => {
-    const res = await request(app.server).get('/v1/nothing-here');
+    const res = await request(testApp().server).get('/v1/nothing-here');
     expect(res.status).toBe(404);
     expect(res.body.error).toBe('not_found');
   });

@@ -1,18 +1,11 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeTestApp } from '../support/test-app.js';
+import { describe, expect, it } from 'vitest';
+import { useTestApp } from '../support/test-app.js';
 
-type App = Awaited<ReturnType<typeof makeTestApp>>;
-let app: App;
-beforeAll(async () => {
-  app = await makeTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const testApp = useTestApp();
 
 const post = (route: string, body: unknown) =>
-  request(app.server).post(route).set('content-type', 'application/json').send(JSON.stringify(body));
+  request(testApp().server).post(route).set('content-type', 'application/json').send(JSON.stringify(body));
 
 /** The see-saw of issue 14: a 40 × 8 mm strip whose top corners sit at 8 ∓ t and 8 ± t, three stations. */
 function seeSaw(t: number, movingSpan?: unknown) {
@@ -49,7 +42,7 @@ describe('crossing station profiles over HTTP', () => {
   it('plans the see-saw strip without a span error', async () => {
     const created = await post('/v1/plans', seeSaw(0.25));
     expect(created.status).toBe(202);
-    const res = await request(app.server).get(created.headers.location as string);
+    const res = await request(testApp().server).get(created.headers.location as string);
     expect(res.status).toBe(200);
     expect(res.body.error ?? '').not.toMatch(/span/i);
     expect(spanFindings(res.body.findings)).toEqual([]);
@@ -58,7 +51,7 @@ describe('crossing station profiles over HTTP', () => {
   it('plans the see-saw strip with the explicit span of the issue without a span error', async () => {
     const created = await post('/v1/plans', seeSaw(0.25, { start: [0, 8], end: [40, 8] }));
     expect(created.status).toBe(202);
-    const res = await request(app.server).get(created.headers.location as string);
+    const res = await request(testApp().server).get(created.headers.location as string);
     expect(res.body.error ?? '').not.toMatch(/span/i);
     expect(spanFindings(res.body.findings)).toEqual([]);
     expect(res.body.findings.map((f: { code: string }) => f.code)).not.toContain('SPAN_DIFFERS_OUTSIDE');

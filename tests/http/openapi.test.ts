@@ -1,22 +1,15 @@
 import { readFileSync } from 'node:fs';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { ERROR_CATALOGUE } from '../../src/http/error-catalogue.js';
 import { SERVICE_VERSION } from '../../src/version.js';
-import { makeTestApp } from '../support/test-app.js';
+import { useTestApp } from '../support/test-app.js';
 
-type App = Awaited<ReturnType<typeof makeTestApp>>;
-let app: App;
-beforeAll(async () => {
-  app = await makeTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const testApp = useTestApp();
 
 describe('the published description', () => {
   it('GET /openapi.json equals the committed api-spec/openapi.json (run `npm run spec` after changing a schema)', async () => {
-    const res = await request(app.server).get('/openapi.json');
+    const res = await request(testApp().server).get('/openapi.json');
     expect(res.status).toBe(200);
     const committed = JSON.parse(readFileSync(new URL('../../api-spec/openapi.json', import.meta.url), 'utf8'));
     expect(res.body).toEqual(committed);

@@ -1,18 +1,11 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { fixture, makeTestApp } from '../support/test-app.js';
+import { describe, expect, it } from 'vitest';
+import { fixture, useTestApp } from '../support/test-app.js';
 
-type App = Awaited<ReturnType<typeof makeTestApp>>;
-let app: App;
-beforeAll(async () => {
-  app = await makeTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const testApp = useTestApp();
 
 const post = (body: unknown) =>
-  request(app.server).post('/v1/plans').set('content-type', 'application/json').send(JSON.stringify(body));
+  request(testApp().server).post('/v1/plans').set('content-type', 'application/json').send(JSON.stringify(body));
 
 describe('POST /v1/plans and GET /v1/plans/{id}', () => {
   it('plans the demo: every station within the fit tolerance, a mechanism with joints at every station', async () => {
@@ -21,7 +14,7 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
     expect(created.body.id).toBeTruthy();
     expect(created.headers.location).toBe(`/v1/plans/${created.body.id}`);
 
-    const res = await request(app.server).get(created.headers.location as string);
+    const res = await request(testApp().server).get(created.headers.location as string);
     expect(res.status).toBe(200);
     const plan = res.body;
     expect(plan.stations).toHaveLength(4);
@@ -71,7 +64,7 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
 
   it('plans the crowned strip as incomplete: one actuator is not found, the fewest found come fully built', async () => {
     const created = await post(fixture('crowned-edging-strip'));
-    const plan = (await request(app.server).get(created.headers.location as string)).body;
+    const plan = (await request(testApp().server).get(created.headers.location as string)).body;
     // a controller that checks only status must not read this as success
     expect(plan.status).toBe('incomplete');
     expect(plan.outcome.meets_request).toBe(false);
@@ -85,7 +78,7 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
   it('stores a failed plan with its reason when the stations cannot be reconciled', async () => {
     const created = await post(fixture('fixed-part-disagrees'));
     expect(created.status).toBe(202);
-    const res = await request(app.server).get(`/v1/plans/${created.body.id}`);
+    const res = await request(testApp().server).get(`/v1/plans/${created.body.id}`);
     expect(res.body.status).toBe('failed');
     expect(res.body.error).toMatch(/separate places/);
     expect(res.body.mechanism).toBeNull();
@@ -116,14 +109,14 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
       ],
     });
     expect(created.status).toBe(202);
-    const res = await request(app.server).get(`/v1/plans/${created.body.id}`);
+    const res = await request(testApp().server).get(`/v1/plans/${created.body.id}`);
     expect(res.status).toBe(200);
     for (const a of res.body.chain.attempts)
       if (a.max_deviation_mm !== null) expect(Number.isFinite(a.max_deviation_mm)).toBe(true);
   });
 
   it('answers 404 for an unknown plan', async () => {
-    const res = await request(app.server).get('/v1/plans/no-such-plan');
+    const res = await request(testApp().server).get('/v1/plans/no-such-plan');
     expect(res.status).toBe(404);
     expect(res.body.error).toBe('not_found');
   });

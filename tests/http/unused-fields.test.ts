@@ -1,15 +1,8 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { fixture, makeTestApp } from '../support/test-app.js';
+import { describe, expect, it } from 'vitest';
+import { fixture, useTestApp } from '../support/test-app.js';
 
-type App = Awaited<ReturnType<typeof makeTestApp>>;
-let app: App;
-beforeAll(async () => {
-  app = await makeTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const testApp = useTestApp();
 
 const fieldsNamed = (findings: { code: string; message: string }[]) =>
   findings.filter((f) => f.code === 'UNUSED_FIELD').map((f) => f.message.split(' ')[2]);
@@ -17,7 +10,7 @@ const fieldsNamed = (findings: { code: string; message: string }[]) =>
 describe('fields the format knows but a route does not use', () => {
   it('a check names the fields no stage reads yet and those only a plan reads', async () => {
     // the demo fixture sends every setting a line controller would (scripts/make-fixtures.ts)
-    const res = await request(app.server)
+    const res = await request(testApp().server)
       .post('/v1/checks')
       .set('content-type', 'application/json')
       .send(JSON.stringify(fixture('demo-edging-strip')));
@@ -39,12 +32,12 @@ describe('fields the format knows but a route does not use', () => {
   });
 
   it('a plan names only the fields no stage reads yet', async () => {
-    const created = await request(app.server)
+    const created = await request(testApp().server)
       .post('/v1/plans')
       .set('content-type', 'application/json')
       .send(JSON.stringify(fixture('demo-edging-strip')));
     expect(created.status).toBe(202);
-    const plan = (await request(app.server).get(created.headers.location as string)).body;
+    const plan = (await request(testApp().server).get(created.headers.location as string)).body;
     expect(fieldsNamed(plan.findings).sort()).toEqual(
       ['time_step_s', 'actuators.max_speed_deg_per_s', 'actuators.max_accel_deg_per_s2', 'plates.thickness_mm'].sort(),
     );
