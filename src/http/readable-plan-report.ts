@@ -33,6 +33,7 @@ export function readablePlan(record: PlanRecord): ReadablePlan {
       fit: null,
       mechanisation: null,
       mechanism: null,
+      motion: null,
       chainsTried: [],
     },
   };

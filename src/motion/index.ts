@@ -38,3 +38,5 @@ export {
   type TransitionPeaks,
   checkMotionLimits,
 } from './check-motion-limits.js';
+export { type SetpointTable, setpointTable, sharedTimeBase } from './setpoint-table.js';
+export { type CamTable, camTable } from './cam-table.js';

@@ -3,6 +3,7 @@ import { type MechanisationResult, mechaniseChain } from '../mechanise/index.js'
 import { type ChainFit, type ChainFitOptions, fitChain, resolveChainFitOptions } from '../synthesis/index.js';
 import { chainMechanism, type PlanMechanism } from './chain-mechanism.js';
 import { type ScheduleCheck, checkSchedule } from './check-schedule.js';
+import { type PlanMotion, planMotion } from './plan-motion.js';
 
 /** One chain the planner fitted and tried to drive, for the report. */
 export interface ChainTried {
@@ -53,6 +54,11 @@ export interface Plan {
   readonly mechanisation: MechanisationResult | null;
   /** The mechanism the plan reports: the mechanised one, or else the bare chain with its degrees of freedom. */
   readonly mechanism: PlanMechanism | null;
+  /**
+   * The actuators' motion between stations (law, setpoint time step, one trajectory per actuator in the order of
+   * `mechanism.actuators`); null when the plan failed or its mechanism has no actuators.
+   */
+  readonly motion: PlanMotion | null;
   /** Every chain fitted and tried, the chosen one marked. */
   readonly chainsTried: readonly ChainTried[];
   readonly findings: readonly Finding[];
@@ -61,7 +67,8 @@ export interface Plan {
 
 /**
  * request → validated schedule → profile checks → chain fit → mechanisation (binary links and actuators, proved by
- * driving the mechanism through every station). Pure and synchronous.
+ * driving the mechanism through every station) → motion (one cycloidal trajectory per actuator, checked against the
+ * actuator limits: `ACTUATOR_LIMIT`). Pure and synchronous.
  *
  * Fit and mechanisation are one search (docs/MODEL.md §3, "Fit and links as one problem"): when the chain fitted as
  * asked cannot be driven by the requested actuators, other chains that trace the stations are fitted (pinned ends
@@ -126,12 +133,12 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
   const first = mechaniseChain(fit, request);
   if (fit.status === 'fitted' && first.status === 'mechanised') {
     record('as asked', fit, first, 'chosen');
-    return finish(base, check, fit, first, tried, []);
+    return finish(schedule, base, check, fit, first, tried, []);
   }
   if (fit.status !== 'fitted') {
     record('as asked', fit, first, 'chosen: no chain the search tried meets the fit tolerance');
     const shortfall = `No chain the search tried traces every station within ${schedule.limits.fitToleranceMm} mm (best ${fmt(worstOf(fit))} mm).`;
-    return finish(base, check, fit, first, tried, [shortfall]);
+    return finish(schedule, base, check, fit, first, tried, [shortfall]);
   }
   record('as asked', fit, first, `the requested ${request.actuatorCount} actuator(s) do not drive it`);
 
@@ -188,7 +195,7 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
         value: other.plateCount,
         message: `The chain fitted with the schedule's own settings (${fit.plateCount} plates) cannot be driven by ${request.actuatorCount} actuator(s); a chain with ${variant.name} (${other.plateCount} plates) traces every station and is driven by them, so it is the plan. See chains_tried.`,
       };
-      return finish(base, check, other, driven, tried, [], [note]);
+      return finish(schedule, base, check, other, driven, tried, [], [note]);
     }
     record(variant.name, other, driven, `the requested ${request.actuatorCount} actuator(s) do not drive it`);
     const fewest = fallback.mechanisation.smallestActuatorCount;
@@ -212,16 +219,17 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
     if (built.status === 'mechanised') {
       const row = tried[fallback.row]!;
       tried[fallback.row] = { ...row, verdict: `chosen with ${smallest} actuators: the fewest found` };
-      return finish(base, check, fallback.fit, built, tried, [shortfall], fallback.mechanisation.findings);
+      return finish(schedule, base, check, fallback.fit, built, tried, [shortfall], fallback.mechanisation.findings);
     }
   }
-  return finish(base, check, fit, first, tried, [shortfall]);
+  return finish(schedule, base, check, fit, first, tried, [shortfall]);
 }
 
 /** Plates tried this much deeper than asked when the chain's plates leave no room for link pins. */
 const DEEPER_PLATES = 1.6;
 
 function finish(
+  schedule: Schedule,
   base: Pick<Plan, 'check' | 'cautions'>,
   check: ScheduleCheck,
   fit: ChainFit,
@@ -244,6 +252,7 @@ function finish(
     );
   }
   const meetsRequest = all.length === 0;
+  const moved = planMotion(schedule, mechanism);
   return {
     status: meetsRequest ? 'done' : 'incomplete',
     error: null,
@@ -252,8 +261,9 @@ function finish(
     fit,
     mechanisation,
     mechanism,
+    motion: moved.motion,
     chainsTried,
-    findings: [...check.findings, ...fit.findings, ...extra, ...mechanisation.findings],
+    findings: [...check.findings, ...fit.findings, ...extra, ...mechanisation.findings, ...moved.findings],
   };
 }
 
@@ -266,6 +276,7 @@ function failed(base: Pick<Plan, 'check' | 'cautions'>, findings: readonly Findi
     fit: null,
     mechanisation: null,
     mechanism: null,
+    motion: null,
     chainsTried: [],
     findings,
   };

@@ -1,0 +1,66 @@
+import type { Finding, Schedule } from '../domain/index.js';
+import { type ActuatorTrajectory, actuatorTrajectory, checkMotionLimits, type MotionLawName } from '../motion/index.js';
+import { DEFAULT_TOLERANCES, toRadians } from '../numeric/index.js';
+import type { PlanMechanism } from './chain-mechanism.js';
+import { motionLimitFinding } from './motion-limit-finding.js';
+
+/**
+ * The plan's motion as plain data: the law between stations, the setpoint table's time step and one trajectory per
+ * actuator, in the order of `mechanism.actuators` (values in radians for rotary, millimetres for linear actuators).
+ */
+export interface PlanMotion {
+  readonly law: MotionLawName;
+  /** Time step of the setpoint table, s. */
+  readonly timeStepS: number;
+  readonly trajectories: readonly ActuatorTrajectory[];
+}
+
+/** The law a plan uses between stations: cycloidal, rest-to-rest over each transition (VDI 2143 Blatt 1). */
+export const PLAN_MOTION_LAW: MotionLawName = 'cycloidal';
+
+/**
+ * One trajectory per actuator of `mechanism`, keyed to the stations' line positions and timed by the line speed
+ * (periodic over `schedule.repeatLengthM` when set), and the findings of the limit check: an `ACTUATOR_LIMIT` warning
+ * per broken limit of a rotary actuator (`schedule.actuators` limits, rad/s and rad/s²), and an
+ * `ACTUATOR_LIMIT_NOT_CHECKED` info per linear actuator (the schedule has no limits in mm/s yet). Motion is null when
+ * the mechanism has no actuators or its station values do not match the stations.
+ */
+export function planMotion(
+  schedule: Schedule,
+  mechanism: PlanMechanism | null,
+): { readonly motion: PlanMotion | null; readonly findings: readonly Finding[] } {
+  const stationsM = schedule.stations.map((s) => s.positionM);
+  const actuators = mechanism?.actuators ?? [];
+  if (actuators.length === 0 || actuators.some((a) => a.stationValues.length !== stationsM.length)) {
+    return { motion: null, findings: [] };
+  }
+  const findings: Finding[] = [];
+  const trajectories = actuators.map((a, k) => {
+    const trajectory = actuatorTrajectory(
+      {
+        kind: a.kind,
+        stationsM,
+        values: a.kind === 'rotary' ? a.stationValues.map(toRadians) : a.stationValues,
+        law: PLAN_MOTION_LAW,
+        lineSpeedMPerS: schedule.process.lineSpeedMPerS,
+        repeatLengthM: schedule.repeatLengthM,
+      },
+      DEFAULT_TOLERANCES,
+    );
+    if (a.kind === 'linear') {
+      findings.push({
+        code: 'ACTUATOR_LIMIT_NOT_CHECKED',
+        severity: 'info',
+        message: `Actuator ${k + 1} (${a.id}) is linear; the schedule gives speed and acceleration limits for rotary actuators only (°/s, °/s²), so its motion was not checked against any limit.`,
+      });
+      return trajectory;
+    }
+    const check = checkMotionLimits(trajectory, {
+      maxSpeedPerS: schedule.actuators.maxSpeedRadPerS,
+      maxAccelerationPerS2: schedule.actuators.maxAccelRadPerS2,
+    });
+    for (const problem of check.problems) findings.push(motionLimitFinding(k, a.id, problem));
+    return trajectory;
+  });
+  return { motion: { law: PLAN_MOTION_LAW, timeStepS: schedule.timeStepS, trajectories }, findings };
+}
