@@ -13,6 +13,7 @@ import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './
 import { openapiInfo } from './http/build-openapi.js';
 import { RateLimiter } from './http/rate-limiter.js';
 import { checkRoutes } from './http/routes/checks.js';
+import { planDownloadRoutes } from './http/routes/plan-downloads.js';
 import { planRoutes } from './http/routes/plans.js';
 import { MemoryPlanStore, type PlanStore } from './store/index.js';
 import { healthRoutes } from './http/routes/health.js';
@@ -176,13 +177,9 @@ export async function buildApp(options: AppOptions) {
   await app.register(fastifySwagger, { openapi: openapiInfo(SERVICE_VERSION), transform: jsonSchemaTransform });
   await app.register(healthRoutes);
   await app.register(checkRoutes);
-  await app.register(
-    planRoutes(
-      options.store ?? new MemoryPlanStore(),
-      () => new Date(options.now?.() ?? Date.now()),
-      options.planTimeLimitS ?? 20,
-    ),
-  );
+  const store = options.store ?? new MemoryPlanStore();
+  await app.register(planRoutes(store, () => new Date(options.now?.() ?? Date.now()), options.planTimeLimitS ?? 20));
+  await app.register(planDownloadRoutes(store));
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app;
 }

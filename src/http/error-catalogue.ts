@@ -34,6 +34,17 @@ export const ERROR_CATALOGUE = Object.freeze({
     meaning: 'No such route or resource.',
     fix: 'Check the path and the id; plans are kept by the service that created them.',
   },
+  no_motion: {
+    status: 409,
+    meaning: 'The plan has no actuator motion to download: it failed, or its mechanism has no actuators.',
+    fix: 'Read the plan (`GET /v1/plans/{id}`): its `error`, `outcome.shortfalls` and findings say why; change the schedule and plan again.',
+  },
+  table_too_large: {
+    status: 409,
+    meaning:
+      'The setpoint table would have more than 200 000 rows (time step too fine for the repeat or stations span).',
+    fix: 'Plan again with a longer `time_step_s`, or use the cam table (`/cam-table.csv?points=N`).',
+  },
   rate_limited: {
     status: 429,
     meaning: 'Too many requests in a short time.',

@@ -185,6 +185,21 @@ export const PlanWire = z.object({
   chain: ChainWire.nullable(),
   mechanisation: MechanisationWire.nullable(),
   mechanism: MechanismWire.nullable(),
+  motion: z
+    .object({
+      law: z
+        .enum(['cycloidal', 'polynomial-345', 'monotone-cubic'])
+        .describe('motion law between stations; cycloidal: rest-to-rest over each transition (VDI 2143 Blatt 1)'),
+      rest_to_rest: z.boolean().describe('true: every actuator comes to rest at every station'),
+      time_step_s: z.number().describe('time between rows of the setpoint table, s'),
+      periodic: z
+        .boolean()
+        .describe('true: the motion repeats every repeat_length_m and its tables close on themselves'),
+    })
+    .nullable()
+    .describe(
+      'how the actuators move between stations (downloads: setpoints.csv/.json, cam-table.csv/.json); null when the plan failed or has no actuators',
+    ),
 });
 
 export type PlanReport = z.infer<typeof PlanWire>;

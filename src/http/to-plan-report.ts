@@ -156,5 +156,13 @@ export function toPlanReport(record: PlanRecord): PlanReport {
           })),
         }
       : null,
+    motion: plan.motion
+      ? {
+          law: plan.motion.law,
+          rest_to_rest: plan.motion.law !== 'monotone-cubic',
+          time_step_s: plan.motion.timeStepS,
+          periodic: plan.motion.trajectories[0]!.timeBase.periodic,
+        }
+      : null,
   };
 }

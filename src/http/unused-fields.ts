@@ -8,13 +8,10 @@ export type ScheduleRoute = 'checks' | 'plans';
  * send whole recipes now, reported so nobody believes they took effect.
  */
 const NOT_USED_YET: Readonly<Record<string, string>> = {
-  time_step_s: 'the setpoint tables of the motion stage',
-  'actuators.max_speed_deg_per_s': 'the motion stage (actuator speed limits)',
-  'actuators.max_accel_deg_per_s2': 'the motion stage (actuator acceleration limits)',
   'plates.thickness_mm': 'the plate drawings',
 };
 
-/** Fields only a plan reads: the chain fit, the links and the actuators. */
+/** Fields only a plan reads: the chain fit, the links, the actuators and their motion. */
 const PLAN_ONLY: readonly string[] = [
   'limits.max_plates',
   'limits.min_plates',
@@ -25,6 +22,9 @@ const PLAN_ONLY: readonly string[] = [
   'links.min_length_mm',
   'links.max_length_mm',
   'actuators.count',
+  'actuators.max_speed_deg_per_s',
+  'actuators.max_accel_deg_per_s2',
+  'time_step_s',
   'repeat_length_m',
 ];
 

@@ -1,0 +1,2 @@
+export { TABLE_DECIMALS, formatNumber } from './format-number.js';
+export { writeCsv } from './write-csv.js';

@@ -1,0 +1,181 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { z } from 'zod';
+import type { PlanMotion } from '../../pipeline/index.js';
+import type { PlanRecord, PlanStore } from '../../store/index.js';
+import { writeCsv } from '../../export/index.js';
+import { CamTableQuery, CamTableWire, PlanIdParams, SetpointsWire } from '../download-schema.js';
+import { type ErrorCode, errorBody } from '../error-catalogue.js';
+import {
+  MAX_SETPOINT_ROWS,
+  type MotionTableText,
+  camTableText,
+  downloadName,
+  setpointRowCount,
+  setpointTableText,
+  stationSetpoints,
+} from '../motion-tables.js';
+import { ErrorWire } from '../report-schema.js';
+import { toCautionWire } from '../to-check-report.js';
+
+/** Default and range of the cam table's `?points=`. */
+export const CAM_POINTS = Object.freeze({ default: 101, min: 2, max: 10_001 });
+
+const CsvText = z.string().describe('CSV, text/csv; charset=utf-8: a header line, then one line per row');
+
+/**
+ * Downloads of a plan's motion: `setpoints.csv` / `.json` (one row per time step) and `cam-table.csv` / `.json`
+ * (master line position against actuator values and slopes). The same plan gives byte-identical files.
+ */
+export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
+  return async (app) => {
+    type Found = { record: PlanRecord; motion: PlanMotion };
+    type Refusal = { status: 404 | 409; body: ReturnType<typeof errorBody> & { request_id: string } };
+    const refuse = (code: ErrorCode, status: 404 | 409, message: string, requestId: string): Refusal => ({
+      status,
+      body: { ...errorBody(code, message), request_id: requestId },
+    });
+    const find = (id: string, requestId: string): Found | Refusal => {
+      const record = store.get(id);
+      if (!record) return refuse('not_found', 404, `No plan with id ${id}.`, requestId);
+      const motion = record.plan.motion;
+      if (record.plan.status === 'failed' || motion === null) {
+        const why =
+          record.plan.status === 'failed'
+            ? `it failed: ${record.plan.error ?? 'see its findings'}`
+            : 'its mechanism has no actuators (see outcome.shortfalls and the findings)';
+        return refuse('no_motion', 409, `Plan ${id} has no actuator motion to download: ${why}`, requestId);
+      }
+      return { record, motion };
+    };
+    const setpoints = (found: Found, requestId: string): MotionTableText | Refusal => {
+      const count = setpointRowCount(found.motion);
+      if (count > MAX_SETPOINT_ROWS) {
+        return refuse(
+          'table_too_large',
+          409,
+          `The setpoint table would have about ${count} rows, more than ${MAX_SETPOINT_ROWS}: plan again with a longer time_step_s, or download the cam table.`,
+          requestId,
+        );
+      }
+      return setpointTableText(found.motion);
+    };
+    const meta = (found: Found, table: MotionTableText) => ({
+      schedule: found.record.schedule.name,
+      law: found.motion.law,
+      periodic: table.periodic,
+      units: Object.fromEntries(table.columns.map((c) => [c, columnUnit(c)])),
+      columns: [...table.columns],
+      cautions: found.record.plan.cautions.map(toCautionWire),
+    });
+    const numbers = (table: MotionTableText) => table.rows.map((r) => r.map(Number));
+    const points = (raw: string | undefined): number | null => {
+      if (raw === undefined) return CAM_POINTS.default;
+      if (!/^\d{1,6}$/.test(raw)) return null;
+      const n = Number(raw);
+      return n >= CAM_POINTS.min && n <= CAM_POINTS.max ? n : null;
+    };
+    const badPoints = (raw: string, requestId: string) => ({
+      ...errorBody('malformed_request', `points=${raw.slice(0, 20)} is not a whole number from 2 to 10001.`, [
+        { path: 'points', message: 'a whole number of master positions from 2 to 10001 (default 101)' },
+      ]),
+      request_id: requestId,
+    });
+    const csvHeaders = (found: Found, suffix: string) => ({
+      'content-type': 'text/csv; charset=utf-8',
+      'content-disposition': `attachment; filename="${downloadName(found.record.schedule.name, suffix)}"`,
+    });
+
+    const csvResponse = { 200: CsvText, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire };
+    app.get(
+      '/v1/plans/:id/setpoints.csv',
+      {
+        schema: {
+          summary: 'Actuator setpoints per time step, as CSV',
+          description:
+            'Header `position_m,time_s,actuator_<n>_deg` (rotary) or `actuator_<n>_mm` (linear), one row per `time_step_s` over one repeat (periodic) or from the first to the last station; numbers with 9 decimals and a "." decimal point. 409 `no_motion` when the plan has no actuators.',
+          tags: ['downloads'],
+          params: PlanIdParams,
+          produces: ['text/csv'],
+          response: csvResponse,
+        },
+      },
+      async (request, reply) => {
+        const found = find(request.params.id, request.id);
+        if ('status' in found) return reply.code(found.status).send(found.body);
+        const table = setpoints(found, request.id);
+        if ('status' in table) return reply.code(table.status).send(table.body);
+        return reply.headers(csvHeaders(found, 'setpoints.csv')).send(writeCsv(table.columns, table.rows));
+      },
+    );
+    app.get(
+      '/v1/plans/:id/setpoints.json',
+      {
+        schema: {
+          summary: 'Actuator setpoints per time step, as JSON with units, law and cautions',
+          tags: ['downloads'],
+          params: PlanIdParams,
+          response: { 200: SetpointsWire, 404: ErrorWire, 409: ErrorWire },
+        },
+      },
+      async (request, reply) => {
+        const found = find(request.params.id, request.id);
+        if ('status' in found) return reply.code(found.status).send(found.body);
+        const table = setpoints(found, request.id);
+        if ('status' in table) return reply.code(table.status).send(table.body);
+        return { ...meta(found, table), time_step_s: found.motion.timeStepS, rows: numbers(table) };
+      },
+    );
+    app.get(
+      '/v1/plans/:id/cam-table.csv',
+      {
+        schema: {
+          summary: 'Electronic cam table (master line position against actuator values and slopes), as CSV',
+          description:
+            'Header `position_m`, then per actuator `actuator_<n>_deg` and `actuator_<n>_deg_per_m` (or `_mm`, `_mm_per_m`); `points` rows with strictly increasing, evenly spaced master positions over one repeat (or the stations span). No comment line: the periodic flag, units and law are in cam-table.json.',
+          tags: ['downloads'],
+          params: PlanIdParams,
+          querystring: CamTableQuery,
+          produces: ['text/csv'],
+          response: csvResponse,
+        },
+      },
+      async (request, reply) => {
+        const n = points(request.query.points);
+        if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
+        const found = find(request.params.id, request.id);
+        if ('status' in found) return reply.code(found.status).send(found.body);
+        const table = camTableText(found.motion, n);
+        return reply.headers(csvHeaders(found, 'cam-table.csv')).send(writeCsv(table.columns, table.rows));
+      },
+    );
+    app.get(
+      '/v1/plans/:id/cam-table.json',
+      {
+        schema: {
+          summary: 'Electronic cam table with its metadata (periodic flag, units, law, station values, cautions)',
+          tags: ['downloads'],
+          params: PlanIdParams,
+          querystring: CamTableQuery,
+          response: { 200: CamTableWire, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire },
+        },
+      },
+      async (request, reply) => {
+        const n = points(request.query.points);
+        if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
+        const found = find(request.params.id, request.id);
+        if ('status' in found) return reply.code(found.status).send(found.body);
+        const table = camTableText(found.motion, n);
+        return { ...meta(found, table), points: n, stations: stationSetpoints(found.motion), rows: numbers(table) };
+      },
+    );
+  };
+}
+
+/** Unit of a table column, from its name. */
+function columnUnit(column: string): string {
+  if (column === 'position_m') return 'm';
+  if (column === 'time_s') return 's';
+  if (column.endsWith('_deg_per_m')) return 'deg/m';
+  if (column.endsWith('_mm_per_m')) return 'mm/m';
+  return column.endsWith('_deg') ? 'deg' : 'mm';
+}
