@@ -2,8 +2,8 @@ import { z } from 'zod';
 import { WIRE_LIMITS } from './wire-limits.js';
 
 /**
- * The wire format of a schedule (CONTRACT.md v1): snake_case, units in the names, millimetres and degrees, metres and
- * minutes where the name says so. Only `stations` is required; every default is stated in the field description and
+ * The wire format of a schedule (public contract v1, api-spec/openapi.json): snake_case, units in the names,
+ * millimetres and degrees, metres and minutes where the name says so. Only `stations` is required; every default is stated in the field description and
  * resolved in `toSchedule`. Fields may be added, never renamed.
  */
 

@@ -6,7 +6,7 @@ import { mm, pointMm, sig } from './wire-format.js';
 
 const regionMm = (r: Region) => ({ outer: r.outer.map(pointMm), holes: r.holes.map((h) => h.map(pointMm)) });
 
-/** Domain plan → wire report (CONTRACT.md `GET /v1/plans/{id}`). */
+/** Domain plan → wire report (`GET /v1/plans/{id}` as api-spec/openapi.json describes it). */
 export function toPlanReport(record: PlanRecord): PlanReport {
   const { plan, schedule } = record;
   const fit = plan.fit;

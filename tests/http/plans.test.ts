@@ -19,7 +19,7 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
     const plan = res.body;
     expect(plan.stations).toHaveLength(4);
     for (const s of plan.stations) {
-      // CONTRACT.md: target and achieved orifices, and the fit against the schedule's 0.2 mm tolerance
+      // the public contract (api-spec/openapi.json): target and achieved orifices, and the fit against the schedule's 0.2 mm tolerance
       expect(s.target_orifice.outer.length).toBeGreaterThan(3);
       expect(s.achieved_orifice.outer.length).toBeGreaterThan(3);
       expect(s.fit.max_deviation_mm).toBeLessThanOrEqual(0.2);
