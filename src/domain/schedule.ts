@@ -98,6 +98,10 @@ export interface ActuatorSettings {
   readonly maxSpeedRadPerS: number;
   /** Largest actuator acceleration, rad/s². */
   readonly maxAccelRadPerS2: number;
+  /** Largest linear actuator speed, mm/s. */
+  readonly maxSpeedMmPerS: number;
+  /** Largest linear actuator acceleration, mm/s². */
+  readonly maxAccelMmPerS2: number;
 }
 
 export interface MovingSpanSettings {

@@ -106,6 +106,8 @@ export const FIELD_RANGES = Object.freeze({
   },
   max_speed_deg_per_s: { min: 0.1, max: 3600, unit: '°/s', basis: `${JUDGEMENT}` },
   max_accel_deg_per_s2: { min: 0.1, max: 100_000, unit: '°/s²', basis: `${JUDGEMENT}` },
+  max_speed_mm_per_s: { min: 0.01, max: 5000, unit: 'mm/s', basis: `${JUDGEMENT}` },
+  max_accel_mm_per_s2: { min: 0.01, max: 100_000, unit: 'mm/s²', basis: `${JUDGEMENT}` },
   match_tolerance_mm: { min: 0.0001, max: 10, unit: 'mm', basis: `0.1 µm (the clipping grid) to 10 mm; ${JUDGEMENT}` },
   time_step_s: {
     min: 0.001,
@@ -268,6 +270,12 @@ export const ActuatorsWire = z.object({
   max_accel_deg_per_s2: ranged('max_accel_deg_per_s2', R.max_accel_deg_per_s2)
     .optional()
     .describe(withRange('largest actuator acceleration, °/s²; default 300', R.max_accel_deg_per_s2)),
+  max_speed_mm_per_s: ranged('max_speed_mm_per_s', R.max_speed_mm_per_s)
+    .optional()
+    .describe(withRange('fastest linear actuator (slot) speed, mm/s; default 50', R.max_speed_mm_per_s)),
+  max_accel_mm_per_s2: ranged('max_accel_mm_per_s2', R.max_accel_mm_per_s2)
+    .optional()
+    .describe(withRange('largest linear actuator acceleration, mm/s²; default 250', R.max_accel_mm_per_s2)),
 });
 
 export const MovingSpanWire = z

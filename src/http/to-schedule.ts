@@ -34,6 +34,8 @@ export const WIRE_DEFAULTS = Object.freeze({
   linkMaxLengthMm: 200, // common practice, no source
   maxSpeedDegPerS: 60,
   maxAccelDegPerS2: 300,
+  maxSpeedMmPerS: 50, // common practice, no source: a small servo slide
+  maxAccelMmPerS2: 250, // common practice, no source
   timeStepS: 0.05,
   matchToleranceMm: 0.02,
 });
@@ -181,6 +183,8 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       count: wire.actuators?.count ?? WIRE_DEFAULTS.actuatorCount,
       maxSpeedRadPerS: toRadians(wire.actuators?.max_speed_deg_per_s ?? WIRE_DEFAULTS.maxSpeedDegPerS),
       maxAccelRadPerS2: toRadians(wire.actuators?.max_accel_deg_per_s2 ?? WIRE_DEFAULTS.maxAccelDegPerS2),
+      maxSpeedMmPerS: wire.actuators?.max_speed_mm_per_s ?? WIRE_DEFAULTS.maxSpeedMmPerS,
+      maxAccelMmPerS2: wire.actuators?.max_accel_mm_per_s2 ?? WIRE_DEFAULTS.maxAccelMmPerS2,
     },
     timeStepS: wire.time_step_s ?? WIRE_DEFAULTS.timeStepS,
     repeatLengthM: wire.repeat_length_m ?? null,

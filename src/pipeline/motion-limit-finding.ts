@@ -3,15 +3,28 @@ import { type MotionLimitProblem, metresPerMinute } from '../motion/index.js';
 import { toDegrees } from '../numeric/index.js';
 
 /**
- * An `ACTUATOR_LIMIT` warning for a rotary actuator's broken limit: value and limit in °/s or °/s², the transition's
+ * An `ACTUATOR_LIMIT` warning for an actuator's broken limit: value and limit in °/s or °/s² (rotary) or mm/s or
+ * mm/s² (linear), the transition's
  * line positions, the shortest transition length (m, rounded up to 3 significant figures) and the highest line speed
  * (m/min, rounded down to 3 significant figures) that meet both limits, so that either figure, applied as written,
  * clears the finding. `index` counts actuators from 0 (the message counts from 1).
  */
-export function motionLimitFinding(index: number, actuatorId: string, problem: MotionLimitProblem): Finding {
-  const unit = problem.quantity === 'speed' ? '°/s' : '°/s²';
-  const value = toDegrees(problem.value);
-  const limit = toDegrees(problem.limit);
+export function motionLimitFinding(
+  index: number,
+  actuatorId: string,
+  kind: 'rotary' | 'linear',
+  problem: MotionLimitProblem,
+): Finding {
+  const rotary = kind === 'rotary';
+  const unit = rotary
+    ? problem.quantity === 'speed'
+      ? '°/s'
+      : '°/s²'
+    : problem.quantity === 'speed'
+      ? 'mm/s'
+      : 'mm/s²';
+  const value = rotary ? toDegrees(problem.value) : problem.value;
+  const limit = rotary ? toDegrees(problem.limit) : problem.limit;
   const shortest = roundSignificant(problem.shortestLengthM, 'up');
   const highest = roundSignificant(metresPerMinute(problem.highestLineSpeedMPerS), 'down');
   return {

@@ -21,8 +21,8 @@ export const PLAN_MOTION_LAW: MotionLawName = 'cycloidal';
 /**
  * One trajectory per actuator of `mechanism`, keyed to the stations' line positions and timed by the line speed
  * (periodic over `schedule.repeatLengthM` when set), and the findings of the limit check: an `ACTUATOR_LIMIT` warning
- * per broken limit of a rotary actuator (`schedule.actuators` limits, rad/s and rad/s²), and an
- * `ACTUATOR_LIMIT_NOT_CHECKED` info per linear actuator (the schedule has no limits in mm/s yet). Motion is null when
+ * per broken limit (`schedule.actuators` limits: rad/s and rad/s² for rotary, mm/s and mm/s² for linear actuators).
+ * Motion is null when
  * the mechanism has no actuators or its station values do not match the stations.
  */
 export function planMotion(
@@ -47,19 +47,12 @@ export function planMotion(
       },
       DEFAULT_TOLERANCES,
     );
-    if (a.kind === 'linear') {
-      findings.push({
-        code: 'ACTUATOR_LIMIT_NOT_CHECKED',
-        severity: 'info',
-        message: `Actuator ${k + 1} (${a.id}) is linear; the schedule gives speed and acceleration limits for rotary actuators only (°/s, °/s²), so its motion was not checked against any limit.`,
-      });
-      return trajectory;
-    }
+    const rotary = a.kind === 'rotary';
     const check = checkMotionLimits(trajectory, {
-      maxSpeedPerS: schedule.actuators.maxSpeedRadPerS,
-      maxAccelerationPerS2: schedule.actuators.maxAccelRadPerS2,
+      maxSpeedPerS: rotary ? schedule.actuators.maxSpeedRadPerS : schedule.actuators.maxSpeedMmPerS,
+      maxAccelerationPerS2: rotary ? schedule.actuators.maxAccelRadPerS2 : schedule.actuators.maxAccelMmPerS2,
     });
-    for (const problem of check.problems) findings.push(motionLimitFinding(k, a.id, problem));
+    for (const problem of check.problems) findings.push(motionLimitFinding(k, a.id, a.kind, problem));
     return trajectory;
   });
   return { motion: { law: PLAN_MOTION_LAW, timeStepS: schedule.timeStepS, trajectories }, findings };

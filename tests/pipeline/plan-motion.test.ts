@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { toSchedule } from '../../src/http/to-schedule.js';
-import { planSchedule } from '../../src/pipeline/index.js';
+import { planMotion, planSchedule } from '../../src/pipeline/index.js';
+import { scheduleForTest } from '../process/schedule-for-test.js';
 import { fixture } from '../support/test-app.js';
 
 /** The demo schedule with some process and actuator settings replaced, planned. */
@@ -67,5 +68,35 @@ describe('planSchedule: actuator motion and its limits', () => {
     expect(slowest).toBeGreaterThanOrEqual(0.01);
     const again = planDemo(slowest, 1);
     expect(again.plan.findings.filter((f) => f.code === 'ACTUATOR_LIMIT')).toEqual([]);
+  });
+});
+
+describe('planMotion: a linear actuator (a slotted end) checked in mm/s', () => {
+  it('a 10 mm stroke over 0.05 m at 2 m/min peaks at 2h/T = 13.3 mm/s: over a 10 mm/s limit, flagged in mm/s', () => {
+    // cycloidal rest-to-rest (VDI 2143 Blatt 1): peak speed 2h/T; T = 0.05 m / (2/60 m/s) = 1.5 s → 2·10/1.5 mm/s.
+    // The highest line speed keeps T ≥ 2h/v_max = 2 s: 0.05 m / 2 s = 0.025 m/s = 1.5 m/min
+    const base = scheduleForTest({ stations: 2 });
+    const schedule = {
+      ...base,
+      process: { ...base.process, lineSpeedMPerS: 2 / 60 },
+      actuators: { ...base.actuators, maxSpeedMmPerS: 10, maxAccelMmPerS2: 1000 },
+      stations: [
+        { ...base.stations[0]!, positionM: 0 },
+        { ...base.stations[1]!, positionM: 0.05 },
+      ],
+    };
+    const mechanism = {
+      mobility: 1,
+      bodies: [],
+      joints: [],
+      actuators: [{ id: 'actuator_1', joint: 'slot_end', kind: 'linear' as const, stationValues: [0, 10] }],
+      findings: [],
+    };
+    const { findings } = planMotion(schedule, mechanism);
+    const speed = findings.find((f) => f.code === 'ACTUATOR_LIMIT' && /speed/.test(f.message))!;
+    expect(speed.value).toBeCloseTo((2 * 10) / 1.5, 9);
+    expect(speed.limit).toBe(10);
+    expect(speed.message).toMatch(/peak speed of 13\.3 mm\/s .* above its limit of 10 mm\/s/);
+    expect(speed.message).toMatch(/run the line at 1\.5 m\/min or slower/);
   });
 });

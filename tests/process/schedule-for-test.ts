@@ -58,7 +58,7 @@ export function scheduleForTest(
     },
     plates: { pivotHoleDiameterMm: 4, ligamentMm: 3, thicknessMm: 6, depthMm: 25 },
     links: { minLengthMm: 7, maxLengthMm: 200 },
-    actuators: { count: 1, maxSpeedRadPerS: 1, maxAccelRadPerS2: 5 },
+    actuators: { count: 1, maxSpeedRadPerS: 1, maxAccelRadPerS2: 5, maxSpeedMmPerS: 50, maxAccelMmPerS2: 250 },
     timeStepS: 0.05,
     repeatLengthM: null,
     movingSpan: { ends: null, matchToleranceMm: 0.02 },
