@@ -24,6 +24,8 @@ const PLAN_ONLY: readonly string[] = [
   'actuators.count',
   'actuators.max_speed_deg_per_s',
   'actuators.max_accel_deg_per_s2',
+  'actuators.max_speed_mm_per_s',
+  'actuators.max_accel_mm_per_s2',
   'time_step_s',
   'repeat_length_m',
 ];
