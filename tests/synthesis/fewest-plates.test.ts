@@ -78,42 +78,33 @@ describe('fitChain: the fewest plates, shown by evidence at one plate fewer', ()
   });
 });
 
+/** Two 10 mm plates from the origin along x, the second bent by `bend` degrees at each station (analytic pivots). */
+function bentPair(...bends: number[]) {
+  const d = (deg: number) => (deg * Math.PI) / 180;
+  const station = (bend: number): [number, number][] => [
+    [0, 0],
+    [10, 0],
+    [10 + 10 * Math.cos(d(bend)), 10 * Math.sin(d(bend))],
+  ];
+  return {
+    lengthsMm: [10, 10],
+    start: { kind: 'pivot' as const, point: [0, 0] as [number, number] },
+    end: { kind: 'pivot' as const, point: [0, 0] as [number, number] },
+    pivots: bends.map(station),
+    telescoping: [],
+  };
+}
+
 describe('jointArticulation', () => {
   it('gives the spread of each relative angle: a pivot bent by 10° then 30° spreads 20°', () => {
     // analytic: plate 1 along x, plate 2 at +10° and +30° in the two stations; the relative angle is 10° and 30°
-    const d = (deg: number) => (deg * Math.PI) / 180;
-    const station = (bend: number) =>
-      [
-        [0, 0],
-        [10, 0],
-        [10 + 10 * Math.cos(d(bend)), 10 * Math.sin(d(bend))],
-      ] as [number, number][];
-    const spreads = jointArticulation({
-      lengthsMm: [10, 10],
-      start: { kind: 'pivot', point: [0, 0] },
-      end: { kind: 'pivot', point: [0, 0] },
-      pivots: [station(10), station(30)],
-      telescoping: [],
-    });
+    const spreads = jointArticulation(bentPair(10, 30));
     expect(spreads).toHaveLength(1);
     expect((spreads[0]! * 180) / Math.PI).toBeCloseTo(20, 10);
   });
 
   it('unwraps bends near ±180°: −179° and +179° are 2° apart, not 358°', () => {
-    const d = (deg: number) => (deg * Math.PI) / 180;
-    const station = (bend: number) =>
-      [
-        [0, 0],
-        [10, 0],
-        [10 + 10 * Math.cos(d(bend)), 10 * Math.sin(d(bend))],
-      ] as [number, number][];
-    const spreads = jointArticulation({
-      lengthsMm: [10, 10],
-      start: { kind: 'pivot', point: [0, 0] },
-      end: { kind: 'pivot', point: [0, 0] },
-      pivots: [station(179), station(-179)],
-      telescoping: [],
-    });
+    const spreads = jointArticulation(bentPair(179, -179));
     expect((spreads[0]! * 180) / Math.PI).toBeCloseTo(2, 10);
   });
 });
