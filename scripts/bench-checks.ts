@@ -11,6 +11,7 @@ import { findThinWalls, measureWalls, type Point, type Region } from '../src/geo
 import { toSchedule } from '../src/http/to-schedule.js';
 import { DEFAULT_TOLERANCES } from '../src/numeric/index.js';
 import { checkSchedule } from '../src/pipeline/index.js';
+import { timeMedian as timeMedianOf } from './time-median.js';
 
 const RUNS = 5;
 const COUNTS = [100, 200, 500, 1000, 2000, 5000];
@@ -42,15 +43,7 @@ function wavyStrip(n: number, phase = 0): Region {
 }
 
 function timeMedian(run: () => unknown): number {
-  run();
-  const times: number[] = [];
-  for (let k = 0; k < RUNS; k++) {
-    const t0 = performance.now();
-    run();
-    times.push(performance.now() - t0);
-  }
-  times.sort((a, b) => a - b);
-  return times[Math.floor(times.length / 2)]!;
+  return timeMedianOf(run, RUNS).ms;
 }
 
 /** Least-squares slope of log(y) against log(x). */

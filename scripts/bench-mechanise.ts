@@ -12,19 +12,12 @@ import { type MechanisationResult, type MechaniseRequest, mechaniseChain } from 
 import { checkSchedule } from '../src/pipeline/index.js';
 import { fitChain, resolveChainFitOptions } from '../src/synthesis/index.js';
 import { fourPlateFit, linkedStations } from '../tests/mechanise/known-linkage.js';
+import { timeMedian as timeMedianOf } from './time-median.js';
 
 const RUNS = 5;
 
 function timeMedian<T>(run: () => T): { value: T; ms: number } {
-  const value = run();
-  const times: number[] = [];
-  for (let k = 0; k < RUNS; k++) {
-    const t0 = performance.now();
-    run();
-    times.push(performance.now() - t0);
-  }
-  times.sort((a, b) => a - b);
-  return { value, ms: times[Math.floor(times.length / 2)]! };
+  return timeMedianOf(run, RUNS);
 }
 
 function describe(r: MechanisationResult): string {

@@ -7,6 +7,7 @@
  */
 import type { Point, Region } from '../src/geometry/index.js';
 import { findMovingSpans } from '../src/span/index.js';
+import { timeMedian as timeMedianOf } from './time-median.js';
 
 const RUNS = 5;
 const STEP_MM = 0.005;
@@ -23,15 +24,7 @@ const families: Record<string, (k: number) => Region> = {
 };
 
 function timeMedian(run: () => unknown): number {
-  run();
-  const times: number[] = [];
-  for (let k = 0; k < RUNS; k++) {
-    const t0 = performance.now();
-    run();
-    times.push(performance.now() - t0);
-  }
-  times.sort((a, b) => a - b);
-  return times[Math.floor(times.length / 2)]!;
+  return timeMedianOf(run, RUNS).ms;
 }
 
 for (const [name, station] of Object.entries(families)) {
