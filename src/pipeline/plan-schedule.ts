@@ -206,10 +206,12 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
 
   // nothing meets the request: the fewest actuators found, fully built, on the chain that needs them
   const smallest = fallback.mechanisation.smallestActuatorCount;
+  // a search cut short by the time limit proves nothing about what it did not reach
+  const cut = stop() ? ' The plan reached its time limit before the search was complete.' : '';
   const shortfall =
     smallest === null
-      ? `No mechanism with ${request.actuatorCount} actuator(s) or more was found for any of the ${tried.length} chains tried.`
-      : `${request.actuatorCount} actuator(s) were asked for; the fewest found to drive a chain that traces every station is ${smallest}, and that mechanism is returned.`;
+      ? `No mechanism with ${request.actuatorCount} actuator(s) or more was found for any of the ${tried.length} chains tried.${cut}`
+      : `${request.actuatorCount} actuator(s) were asked for; the fewest found to drive a chain that traces every station is ${smallest}, and that mechanism is returned.${cut}`;
   if (smallest !== null && smallest !== request.actuatorCount) {
     const built = mechaniseChain(fallback.fit, {
       ...request,

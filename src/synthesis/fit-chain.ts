@@ -55,8 +55,8 @@ export interface ChainFitOptions {
   /** May plates carry shaped edges (common to all stations) when straight edges miss? @default true */
   readonly shapedEdges: boolean;
   /**
-   * Asked before each further plate count: true ends the search there with what it has (the caller's time limit; the
-   * core reads no clock). @default never
+   * Asked before each further start and plate count: true ends the search there with what it has (the caller's time
+   * limit; the core reads no clock). A single least-squares solve is never interrupted. @default never
    */
   readonly stop: () => boolean;
 }
@@ -386,6 +386,7 @@ function fitDistinctStations(
     // could not win
     const next: Candidate[] = [];
     for (const c of live) {
+      if (next.length > 0 && stopNow()) break;
       // a shaped-edge refit weighs samples for shaped edges; the next count is fitted for straight edges again
       const plain: ChainProblemSpec = {
         ...c.solved.spec,
@@ -395,7 +396,7 @@ function fitDistinctStations(
       const split = splitWorstPlate(c.solved.x, plain, options);
       let tried = judge(c.form, split ? refineChain(split.x, split.spec, options) : fromScratch(n, c.form));
       // a split keeps the shorter chain's bends where they were: an independent start may find other ones
-      if (split && !passes(tried)) {
+      if (split && !passes(tried) && !stopNow()) {
         const fresh = judge(c.form, fromScratch(n, c.form));
         if (passes(fresh) || distance(fresh) < distance(tried)) tried = fresh;
       }
@@ -423,21 +424,27 @@ function fitDistinctStations(
       const turning = jointArticulation(chainFromParameters(winner.solved.x, plainWinner));
       const order = turning.map((t, j) => ({ t, pivot: j + 1 })).sort((a, b) => a.t - b.t);
       for (const { pivot } of order.slice(0, MERGE_STARTS)) {
+        if (tries.length > 0 && stopNow()) break;
         const start = mergePlatesStart(winner.solved.x, plainWinner, pivot);
         if (!start) continue;
         tries.push(judge(winner.form, refineChain(start.x, start.spec, options)));
         if (passes(tries[tries.length - 1]!)) break;
       }
-      if (!tries.some(passes)) {
+      if (!tries.some(passes) && !stopNow()) {
         for (const form of forms) {
           if (form.telescoping.length > 0 && m < 3) continue;
+          if (stopNow()) break;
           tries.push(judge(form, fromScratch(m, form)));
           if (passes(tries[tries.length - 1]!)) break;
         }
       }
       shapeNearest(tries);
       const pass = tries.find(passes);
-      if (!pass) break;
+      // a count cut short by the stop is no evidence that it misses
+      if (!pass || stoppedEarly) {
+        if (pass) winner = pass;
+        break;
+      }
       winner = pass;
     }
   }
