@@ -45,6 +45,12 @@ export const ERROR_CATALOGUE = Object.freeze({
       'The setpoint table would have more than 200 000 rows (time step too fine for the repeat or stations span).',
     fix: 'Plan again with a longer `time_step_s`, or use the cam table (`/cam-table.csv?points=N`).',
   },
+  plan_too_large: {
+    status: 422,
+    meaning:
+      'The schedule is too large to plan inside one request: its station boundaries add up to more than the plan work limit (the chain fit grows with the boundary length of every station).',
+    fix: 'Send fewer stations (stations between which the profile changes little add little), or plan the schedule in parts; checks (`POST /v1/checks`) have no such limit.',
+  },
   rate_limited: {
     status: 429,
     meaning: 'Too many requests in a short time.',

@@ -121,3 +121,23 @@ describe('POST /v1/plans and GET /v1/plans/{id}', () => {
     expect(res.body.error).toBe('not_found');
   });
 });
+
+describe('POST /v1/plans: work per request is bounded', () => {
+  it('refuses with 422 plan_too_large, naming stations, a schedule whose boundaries exceed 20 m', async () => {
+    // 210 stations of a 40 × 8 mm strip: 96 mm of boundary each (analytic), 20.16 m in all
+    const rect = (h: number) => ({
+      outer: [
+        [0, 0],
+        [40, 0],
+        [40, h],
+        [0, h],
+      ],
+    });
+    const stations = Array.from({ length: 210 }, (_, i) => ({ position_m: i * 0.01, orifice: rect(8 + (i % 2)) }));
+    const res = await post({ stations });
+    expect(res.status).toBe(422);
+    expect(res.body.error).toBe('plan_too_large');
+    expect(res.body.details[0].path).toBe('stations');
+    expect(res.body.request_id).toBeTruthy();
+  });
+});

@@ -9,11 +9,19 @@ import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { readablePlan } from '../readable-plan-report.js';
 import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
+import { ringPerimeter } from '../../geometry/index.js';
 
 /**
  * `POST /v1/plans` and `GET /v1/plans/{id}`. The plan is computed before the answer (the job queue comes with the
  * service work); the record is stored whole, so a failure leaves nothing half-written.
  */
+/**
+ * Largest total outer-boundary length of a schedule's stations a plan request may fit, mm: about 180 stations of the
+ * demo strip (about 110 mm of boundary each). Measured on a 2-core machine: 100 such stations plan in about 6 s, 400 in
+ * about 55 s (README), so a plan stays within about half a minute until plans move to background jobs.
+ */
+export const PLAN_BOUNDARY_LIMIT_MM = 20_000;
+
 export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number): FastifyPluginAsyncZod {
   return async (app) => {
     app.post(
@@ -23,7 +31,7 @@ export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number
           summary: 'Plan a schedule: check, fit the plate chain, build the mechanism',
           tags: ['plans'],
           body: ScheduleWire,
-          response: { 202: PlanAcceptedWire, 400: ErrorWire },
+          response: { 202: PlanAcceptedWire, 400: ErrorWire, 422: ErrorWire },
         },
         preValidation: keepRawBody,
       },
@@ -35,6 +43,23 @@ export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number
             ...errorBody('invalid_schedule', 'A plan needs at least two stations.', [
               { path: 'stations', message: 'a plan needs at least 2 stations: with one there is nothing to move' },
             ]),
+            request_id: request.id,
+          });
+        }
+        // the chain fit's work grows with every station's boundary length: refuse what would hold the service
+        const boundaryMm = schedule.stations.reduce((sum, s) => sum + ringPerimeter(s.orifice.outer), 0);
+        if (boundaryMm > PLAN_BOUNDARY_LIMIT_MM) {
+          return reply.code(422).send({
+            ...errorBody(
+              'plan_too_large',
+              `The stations' boundaries add up to ${Math.round(boundaryMm / 1000)} m, more than the ${PLAN_BOUNDARY_LIMIT_MM / 1000} m one plan request may fit.`,
+              [
+                {
+                  path: 'stations',
+                  message: `${schedule.stations.length} stations with ${Math.round(boundaryMm / 1000)} m of boundary in all: send fewer stations or plan the schedule in parts (at most ${PLAN_BOUNDARY_LIMIT_MM / 1000} m)`,
+                },
+              ],
+            ),
             request_id: request.id,
           });
         }
