@@ -35,6 +35,8 @@ export interface PlanSettings {
    * caller's time limit; the core reads no clock). @default never
    */
   readonly stop?: () => boolean;
+  /** Told the stage the plan enters and a coarse overall fraction 0–1 (for a job's progress). @default none */
+  readonly progress?: (stage: string, fraction: number) => void;
 }
 
 /** A plan: the check, the fitted chain and the mechanism built from it, or why it stopped. */
@@ -79,6 +81,8 @@ export interface Plan {
  */
 export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): Plan {
   const stop = settings.stop ?? (() => false);
+  const progress = settings.progress ?? (() => {});
+  progress('check', 0);
   const check = checkSchedule(schedule);
   const base = { check, cautions: check.cautions };
   if (schedule.stations.length < 2) {
@@ -129,7 +133,9 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
       verdict,
     });
 
+  progress('fit', 0.1);
   const fit = fitWith(asked);
+  progress('mechanise', 0.5);
   const first = mechaniseChain(fit, request);
   if (fit.status === 'fitted' && first.status === 'mechanised') {
     record('as asked', fit, first, 'chosen');
@@ -159,6 +165,7 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
   // when nothing meets the request, the chain that the fewest actuators drive is the fallback
   let fallback = { fit, mechanisation: first, row: 0 };
   for (const variant of variants) {
+    progress('other chains', 0.6 + (0.35 * variants.indexOf(variant)) / variants.length);
     if (stop()) {
       tried.push({
         variant: variant.name,
