@@ -8,8 +8,10 @@ export interface Finding {
   readonly severity: FindingSeverity;
   /** Station index in schedule order, when the finding belongs to one station. */
   readonly station?: number;
-  /** Line position of that station, m. */
+  /** Line position of that station, m; for a finding along the motion, where the broken limit starts. */
   readonly positionM?: number;
+  /** For a finding along the motion: where the broken limit ends, m (the range is positionM … toPositionM). */
+  readonly toPositionM?: number;
   /** The measured value, in the unit the message names. */
   readonly value?: number;
   /** The limit it was compared with, same unit. */

@@ -7,6 +7,7 @@ export type {
   PlateSettings,
   ActuatorSettings,
   MovingSpanSettings,
+  MotionLaw,
 } from './schedule.js';
 export type { Finding, FindingSeverity } from './finding.js';
 export type { Caution } from './caution.js';

@@ -17,10 +17,19 @@ export interface Schedule {
   readonly timeStepS: number;
   /** Length of one repeat of a periodic schedule, m; null when the schedule is not periodic. */
   readonly repeatLengthM: number | null;
+  /**
+   * Motion law of the actuators between stations (docs/MODEL.md §3 "Motion"): `cycloidal` or `polynomial-345`
+   * (rest at every station, VDI 2143 Blatt 1) or `monotone-cubic` (Fritsch & Carlson 1980 through all station
+   * values). @default 'cycloidal' when absent
+   */
+  readonly motionLaw?: MotionLaw;
   readonly movingSpan: MovingSpanSettings;
   /** Stations in strictly increasing line position. */
   readonly stations: readonly Station[];
 }
+
+/** The motion laws a plan may use between stations (wire: `cycloidal`, `polynomial_345`, `monotone_cubic`). */
+export type MotionLaw = 'cycloidal' | 'polynomial-345' | 'monotone-cubic';
 
 /** Material presets the service knows, or `custom` (then every process value comes from the request). */
 export type MaterialName = 'PVC-U' | 'HDPE' | 'PP' | 'ABS' | 'TPE' | 'custom';
@@ -54,6 +63,12 @@ export interface ProcessSettings {
   readonly dieTemperatureC: number;
   /** Die land length used for the slit-flow pressure estimate, mm. */
   readonly dieLandLengthMm: number;
+  /**
+   * True: the puller speed follows the orifice area along the motion so that the draw-down stays at the target
+   * (middle of the draw-down range) at constant throughput (ṁ = ρ·A·v), and line position is re-timed by that speed.
+   * False: the puller runs at the nominal line speed. @default false when absent
+   */
+  readonly pullerFollowsArea?: boolean;
 }
 
 export interface Limits {

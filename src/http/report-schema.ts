@@ -9,7 +9,14 @@ export const FindingWire = z
     code: z.string().describe('stable upper-case code, listed in api-spec/errors.md'),
     severity: z.enum(['info', 'warning', 'error']),
     station: z.number().int().optional().describe('station index in schedule order'),
-    position_m: z.number().optional().describe('line position of that station, m'),
+    position_m: z
+      .number()
+      .optional()
+      .describe('line position of that station, m; for a finding along the motion, where the broken limit starts'),
+    to_position_m: z
+      .number()
+      .optional()
+      .describe('for a finding along the motion (codes MOTION_…): where the broken limit ends, m'),
     value: z.number().optional().describe('measured value, in the unit the message names'),
     limit: z.number().optional().describe('the limit it was compared with'),
     at_mm: PointOut.optional().describe('where in the die-body frame'),

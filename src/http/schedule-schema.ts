@@ -152,6 +152,9 @@ export const StationWire = z.object({
 
 const materialNames = ['PVC-U', 'HDPE', 'PP', 'ABS', 'TPE', 'custom'] as const;
 
+/** Motion laws as the wire spells them. */
+export const motionLawNames = ['cycloidal', 'polynomial_345', 'monotone_cubic'] as const;
+
 export const ProcessWire = z
   .object({
     line_speed_m_per_min: ranged('line_speed_m_per_min', R.line_speed_m_per_min)
@@ -186,6 +189,12 @@ export const ProcessWire = z
     die_land_length_mm: ranged('die_land_length_mm', R.die_land_length_mm)
       .optional()
       .describe(withRange('die land length for the pressure estimate, mm; default 20', R.die_land_length_mm)),
+    puller_follows_area: z
+      .boolean({ error: 'puller_follows_area must be true or false' })
+      .optional()
+      .describe(
+        'true: the puller-speed table of a plan follows the orifice area along the motion so the draw-down stays at the middle of the draw-down range at constant throughput (ṁ = ρ·A·v), and the setpoint table is timed by that speed; false: the puller runs at line_speed_m_per_min; default false',
+      ),
   })
   .describe('process data; every value defaults from the material preset');
 
@@ -314,6 +323,12 @@ export const ScheduleWire = z
       repeat_length_m: ranged('repeat_length_m', R.repeat_length_m)
         .optional()
         .describe(withRange('length of one repeat when periodic, m', R.repeat_length_m)),
+      motion_law: z
+        .enum(motionLawNames, { error: `motion_law must be one of ${motionLawNames.join(', ')}` })
+        .optional()
+        .describe(
+          'actuator motion between stations: cycloidal or polynomial_345 (3-4-5; both rest at every station, VDI 2143 Blatt 1), or monotone_cubic (Fritsch & Carlson 1980, through all station values without overshoot, no rest); default cycloidal',
+        ),
       moving_span: MovingSpanWire.optional(),
       stations: z
         .array(StationWire, {

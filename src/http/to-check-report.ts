@@ -58,6 +58,7 @@ export function toFindingWire(f: Finding): FindingOut {
     severity: f.severity,
     ...(f.station !== undefined ? { station: f.station } : {}),
     ...(f.positionM !== undefined ? { position_m: f.positionM } : {}),
+    ...(f.toPositionM !== undefined && Number.isFinite(f.toPositionM) ? { to_position_m: f.toPositionM } : {}),
     // value, limit and place are optional on the wire: one that is not a finite number is left out, never sent as
     // NaN (which JSON cannot carry and the response schema refuses); the message still says what was found
     ...(f.value !== undefined && Number.isFinite(f.value) ? { value: sig(f.value) } : {}),

@@ -1,4 +1,4 @@
-import { MATERIAL_PRESETS, type Schedule, type Station } from '../domain/index.js';
+import { MATERIAL_PRESETS, type MotionLaw, type Schedule, type Station } from '../domain/index.js';
 import { normalizeRegion, normalizeRing, type Point, type Region, validateRegion } from '../geometry/index.js';
 import { DEFAULT_TOLERANCES, toRadians } from '../numeric/index.js';
 import { formatFieldPath } from './field-path.js';
@@ -39,6 +39,13 @@ export const WIRE_DEFAULTS = Object.freeze({
   timeStepS: 0.05,
   matchToleranceMm: 0.02,
 });
+
+/** Wire spelling of a motion law → the domain's. */
+const WIRE_MOTION_LAW = Object.freeze({
+  cycloidal: 'cycloidal',
+  polynomial_345: 'polynomial-345',
+  monotone_cubic: 'monotone-cubic',
+} as const satisfies Record<string, MotionLaw>);
 
 /**
  * The one place where wire units become domain units: resolves every default (material preset first, then the
@@ -160,6 +167,7 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       powerLawMPaSn: powerLawM,
       dieTemperatureC: dieTemperature,
       dieLandLengthMm: p.die_land_length_mm ?? WIRE_DEFAULTS.dieLandLengthMm,
+      pullerFollowsArea: p.puller_follows_area ?? false,
     },
     limits: {
       drawDownMin: drawDown.min,
@@ -188,6 +196,7 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
     },
     timeStepS: wire.time_step_s ?? WIRE_DEFAULTS.timeStepS,
     repeatLengthM: wire.repeat_length_m ?? null,
+    motionLaw: wire.motion_law === undefined ? 'cycloidal' : WIRE_MOTION_LAW[wire.motion_law],
     movingSpan: {
       ends:
         span?.start !== undefined && span.end !== undefined

@@ -28,6 +28,8 @@ const PLAN_ONLY: readonly string[] = [
   'actuators.max_accel_mm_per_s2',
   'time_step_s',
   'repeat_length_m',
+  'motion_law',
+  'process.puller_follows_area',
 ];
 
 /**

@@ -20,7 +20,7 @@ export {
   timeAtPosition,
   wrapPosition,
 } from './line-time-base.js';
-export { type StepGrid, stepGrid } from './step-grid.js';
+export { type StepGrid, stepGrid, timeStepsOver } from './step-grid.js';
 export {
   type ActuatorKind,
   type ActuatorTrajectory,

@@ -3,7 +3,9 @@ import { type MechanisationResult, mechaniseChain } from '../mechanise/index.js'
 import { type ChainFit, type ChainFitOptions, fitChain, resolveChainFitOptions } from '../synthesis/index.js';
 import { chainMechanism, type PlanMechanism } from './chain-mechanism.js';
 import { type ScheduleCheck, checkSchedule } from './check-schedule.js';
+import { simulationFindings } from './motion-findings.js';
 import { type PlanMotion, planMotion } from './plan-motion.js';
+import { type PlanSimulation, simulatePlan } from './plan-simulation.js';
 
 /** One chain the planner fitted and tried to drive, for the report. */
 export interface ChainTried {
@@ -61,6 +63,12 @@ export interface Plan {
    * `mechanism.actuators`); null when the plan failed or its mechanism has no actuators.
    */
   readonly motion: PlanMotion | null;
+  /**
+   * The commanded motion simulated step by step (mechanism assembled, orifice clipped and measured, process figures,
+   * puller speed); null (or absent) without a driven mechanism and its motion. Findings with a position range come
+   * from it.
+   */
+  readonly simulation?: PlanSimulation | null;
   /** Every chain fitted and tried, the chosen one marked. */
   readonly chainsTried: readonly ChainTried[];
   readonly findings: readonly Finding[];
@@ -69,8 +77,9 @@ export interface Plan {
 
 /**
  * request → validated schedule → profile checks → chain fit → mechanisation (binary links and actuators, proved by
- * driving the mechanism through every station) → motion (one cycloidal trajectory per actuator, checked against the
- * actuator limits: `ACTUATOR_LIMIT`). Pure and synchronous.
+ * driving the mechanism through every station) → motion (one trajectory per actuator by the schedule's law, checked
+ * against the actuator limits: `ACTUATOR_LIMIT`) → the commanded motion simulated step by step (`simulatePlan`), with
+ * findings over position ranges (`MOTION_…`). Pure and synchronous.
  *
  * Fit and mechanisation are one search (docs/MODEL.md §3, "Fit and links as one problem"): when the chain fitted as
  * asked cannot be driven by the requested actuators, other chains that trace the stations are fitted (pinned ends
@@ -261,7 +270,18 @@ function finish(
     );
   }
   const meetsRequest = all.length === 0;
-  const moved = planMotion(schedule, mechanism);
+  let moved = planMotion(schedule, mechanism);
+  const simulation =
+    moved.motion && mechanisation.status === 'mechanised'
+      ? simulatePlan({ schedule, check, fit, mechanisation, motion: moved.motion })
+      : null;
+  if (simulation?.pullerFollowsArea) {
+    // the actuators keep their values per metre of line, so a faster puller moves them faster: check at the fastest
+    const fastest = Math.max(...simulation.pullerSpeedMPerS.filter(Number.isFinite));
+    if (fastest > schedule.process.lineSpeedMPerS)
+      moved = planMotion(schedule, mechanism, { limitLineSpeedMPerS: fastest });
+  }
+  const simulated = simulation ? simulationFindings(simulation, schedule) : [];
   return {
     status: meetsRequest ? 'done' : 'incomplete',
     error: null,
@@ -271,8 +291,16 @@ function finish(
     mechanisation,
     mechanism,
     motion: moved.motion,
+    simulation,
     chainsTried,
-    findings: [...check.findings, ...fit.findings, ...extra, ...mechanisation.findings, ...moved.findings],
+    findings: [
+      ...check.findings,
+      ...fit.findings,
+      ...extra,
+      ...mechanisation.findings,
+      ...moved.findings,
+      ...simulated,
+    ],
   };
 }
 
@@ -286,6 +314,7 @@ function failed(base: Pick<Plan, 'check' | 'cautions'>, findings: readonly Findi
     mechanisation: null,
     mechanism: null,
     motion: null,
+    simulation: null,
     chainsTried: [],
     findings,
   };
