@@ -1,0 +1,459 @@
+import type { Caution, Finding, Schedule } from '../domain/index.js';
+import { type Point, type Region, type Ring, regionArea, unionRegions } from '../geometry/index.js';
+import { initialPose, jointPoint, type Pose, solvePosition } from '../kinematics/index.js';
+import { toRadians } from '../numeric/index.js';
+import type { Plan } from '../pipeline/index.js';
+import { pivotFans, plateOutline } from '../synthesis/index.js';
+
+/**
+ * Added to the schedule's pivot hole diameter on every drawn pin hole, mm: a running fit for a pin of the schedule's
+ * diameter. For 3–6 mm a H7 hole on a g6 pin leaves 0.004–0.024 mm (ISO 286-2 tables, from memory); 0.02 mm sits in
+ * that band and is stated on every drawing so the tool maker can ream to their own fit instead.
+ */
+export const PIN_HOLE_FIT_CLEARANCE_MM = 0.02;
+
+/**
+ * Configurations solved between neighbouring stations for the swept envelope (each transition cut into this many
+ * equal steps of the actuator values). Every actuator moves by the same rest-to-rest law over a transition, so all of
+ * them are at the same fraction of their move at any instant: the configurations the die passes through are exactly
+ * those at linearly interpolated actuator values, whatever the law.
+ */
+export const STEPS_PER_TRANSITION = 8;
+
+/** What a drawn part is, in plain words. */
+export type PartKind = 'plate' | 'telescoping half' | 'slider block' | 'link';
+
+/** A round hole of a part, die-body frame, mm. */
+export interface DrawnHole {
+  readonly centre: Point;
+  /** Drawn (cut) diameter: the schedule's pivot hole diameter plus `PIN_HOLE_FIT_CLEARANCE_MM`, mm. */
+  readonly diameterMm: number;
+  /** The joint whose pin goes through it. */
+  readonly joint: string;
+}
+
+/** One part as placed in one configuration, die-body frame, mm. */
+export interface DrawnPart {
+  /** The mechanism body id (`plate_2`, `plate_3_slide`, `slider_start`, `link_1`). */
+  readonly id: string;
+  readonly kind: PartKind;
+  /** Layer in the plate stack (1 nearest the die body), as the plan's mechanism gives it. */
+  readonly stackLayer: number;
+  /** Closed cut outline, counter-clockwise, first point not repeated. */
+  readonly outline: Ring;
+  /**
+   * True when `outline` is, vertex for vertex, the plate outline the plan's clipping used at this configuration
+   * (`plateOutline`); false when a boss round a link pin widens the plate (then the union with the boss, on clipper's
+   * 0.1 µm grid) or for parts the clipping does not use (links, slider blocks, telescoping halves).
+   */
+  readonly exactOutline: boolean;
+  readonly holes: readonly DrawnHole[];
+  /** The edge that forms the orifice, from one round end to the other; null for parts away from the melt. */
+  readonly meltEdge: readonly Point[] | null;
+}
+
+/** One station as the drawings show it. */
+export interface DrawnStation {
+  readonly index: number;
+  readonly positionM: number;
+  readonly target: Region;
+  /** Die opening minus the plates where the driven mechanism puts them (the plan's achieved orifice). */
+  readonly achieved: Region;
+  /** Symmetric Hausdorff distance between target and achieved boundaries, mm. */
+  readonly deviationMm: number;
+  readonly parts: readonly DrawnPart[];
+}
+
+/** An actuator and where it sits at the first station. */
+export interface DrawnActuator {
+  readonly id: string;
+  readonly joint: string;
+  readonly kind: 'rotary' | 'linear';
+  /** The joint's point at the first station, mm. */
+  readonly at: Point;
+  /** True when one side of the actuator's joint is the die body (it mounts on the die body). */
+  readonly onDieBody: boolean;
+  /** The other body of the joint. */
+  readonly drives: string;
+  /** Values at the stations, degrees (rotary) or mm (linear). */
+  readonly stationValues: readonly number[];
+}
+
+/** A straight slot in the die body for a chain end, mm. */
+export interface DrawnSlot {
+  readonly joint: string;
+  /** Pin centre at the two ends of its travel over the stations. */
+  readonly from: Point;
+  readonly to: Point;
+  /** Width of the slot: the slider block's width, mm. */
+  readonly widthMm: number;
+}
+
+/** Everything the drawings of one plan show, in the plan's own numbers (die-body frame, working temperature). */
+export interface DrawingModel {
+  readonly scheduleName: string;
+  /** The polymer the die runs (the schedule's material). */
+  readonly polymer: string;
+  readonly plateThicknessMm: number;
+  readonly pinDiameterMm: number;
+  readonly holeDiameterMm: number;
+  readonly dieTemperatureC: number;
+  /** Highest layer in the stack. */
+  readonly stackLayers: number;
+  /** The die opening the clipping used (envelope of every station's outer boundary). */
+  readonly opening: Region;
+  readonly stations: readonly DrawnStation[];
+  /** Die-body pin holes: chain ends pinned to the die body and links' ground pins, at their fixed place. */
+  readonly groundHoles: readonly DrawnHole[];
+  readonly slots: readonly DrawnSlot[];
+  readonly actuators: readonly DrawnActuator[];
+  /** Union of every moving part over every configuration drawn (stations and intermediate steps), mm. */
+  readonly sweptEnvelope: readonly Region[];
+  /** How many configurations the envelope covers and how they were found, in words. */
+  readonly sweepNote: string;
+  readonly findings: readonly Finding[];
+  readonly cautions: readonly Caution[];
+}
+
+/** Why a plan cannot be drawn. */
+export type DrawingRefusal = { readonly ok: false; readonly reason: string };
+
+/**
+ * The parts, stations and die-body features of a plan, ready for the writers. Plates are drawn exactly as the plan's
+ * clipping draws them (`plateOutline` between the pivots where the mechanism puts them, the same pivot fans and shaped
+ * edges; docs/MODEL.md §2); a link pin closer than e to a plate's side edge sits in a boss of radius e, as the
+ * clearance model draws it, and the plate's cut outline is widened by it. Links are capsules of half width e round
+ * their pin line (the clearance model's steel width). Telescoping halves: each a straight plate of the pair's shortest
+ * station length from its own pivot (the clipping treats the pair as one plate whose length changes). Slider blocks:
+ * 4e long along the slot, 2e wide, round their pin. Null-free: refuses a plan without a mechanism.
+ */
+export function drawingModel(
+  plan: Plan,
+  schedule: Schedule,
+): { readonly ok: true; readonly model: DrawingModel } | DrawingRefusal {
+  const { fit, mechanism } = plan;
+  if (plan.status === 'failed' || !fit || !mechanism) {
+    return { ok: false, reason: plan.error ?? 'the plan has no mechanism' };
+  }
+  const shape = fit.shape;
+  const e = shape.edgeOffsetMm;
+  const holeDiameterMm = schedule.plates.pivotHoleDiameterMm + PIN_HOLE_FIT_CLEARANCE_MM;
+  const n = fit.plateCount;
+  const stationCount = schedule.stations.length;
+  const layerOf = new Map(mechanism.bodies.map((b) => [b.id, b.layer] as const));
+  const jointById = new Map(mechanism.joints.map((j) => [j.id, j] as const));
+  const telescoping = new Map(fit.chain.telescoping.map((t) => [t.plate + 1, t.stationLengthsMm] as const));
+  const links = plan.mechanisation?.status === 'mechanised' ? plan.mechanisation.links : [];
+  const pivotIds = Array.from({ length: n + 1 }, (_, k) => `pivot_${k}`);
+  const stationJoints: Map<string, Point>[] = Array.from(
+    { length: stationCount },
+    (_, i) => new Map(mechanism.joints.map((j) => [j.id, j.stationPositions[i]!] as const)),
+  );
+  // the pivot fans over all stations, as the clipping computes them
+  const fans = pivotFans(stationJoints.map((joints) => pivotIds.map((id) => joints.get(id)!)));
+
+  const hole = (centre: Point, joint: string): DrawnHole => ({ centre, diameterMm: holeDiameterMm, joint });
+  const partsAt = (joints: ReadonlyMap<string, Point>): DrawnPart[] => {
+    const parts: DrawnPart[] = [];
+    const pivot = (k: number) => joints.get(`pivot_${k}`)!;
+    for (let k = 1; k <= n; k++) {
+      const a = pivot(k - 1);
+      const b = pivot(k);
+      const id = `plate_${k}`;
+      const stationLengths = telescoping.get(k);
+      if (stationLengths) {
+        const length = Math.min(...stationLengths);
+        const u = unit(a, b);
+        for (const [half, from, dir, joint] of [
+          [id, a, u, `pivot_${k - 1}`],
+          [`${id}_slide`, b, [-u[0], -u[1]] as Point, `pivot_${k}`],
+        ] as const) {
+          const far: Point = [from[0] + dir[0] * length, from[1] + dir[1] * length];
+          // the slide runs from its pivot backwards: draw it from the far end so its melt edge stays on the melt side
+          const outline = half === id ? plateOutline(from, far, shape) : plateOutline(far, from, shape);
+          parts.push({
+            id: half,
+            kind: 'telescoping half',
+            stackLayer: layerOf.get(half) ?? 1,
+            outline: outline.outer,
+            exactOutline: false,
+            holes: [hole(from, joint)],
+            meltEdge: meltEdgeOf(outline.outer, 0),
+          });
+        }
+        continue;
+      }
+      const edge = fit.edgeProfiles[k - 1] ?? null;
+      const outline = plateOutline(a, b, shape, edge, { atA: fans[k - 1]!, atB: fans[k]! });
+      const holes = [hole(a, `pivot_${k - 1}`), hole(b, `pivot_${k}`)];
+      let cut: Ring = outline.outer;
+      let exact = true;
+      for (const link of links) {
+        if (link.bodyB !== id && link.bodyA !== id) continue;
+        const joint = link.bodyB === id ? `${link.id}_b` : `${link.id}_a`;
+        const pin = joints.get(joint)!;
+        holes.push(hole(pin, joint));
+        // the clearance model's boss: a pin nearer than e to the plate's edge sits in a disc of radius e
+        if (ringDistance(pin, outline.outer) < e) {
+          const merged = unionRegions([
+            { outer: outline.outer, holes: [] },
+            { outer: disc(pin, e, 24), holes: [] },
+          ]);
+          const biggest = merged.reduce((x, y) => (regionArea(y) > regionArea(x) ? y : x));
+          cut = biggest.outer;
+          exact = false;
+        }
+      }
+      parts.push({
+        id,
+        kind: 'plate',
+        stackLayer: layerOf.get(id) ?? 1,
+        outline: cut,
+        exactOutline: exact,
+        holes,
+        meltEdge: meltEdgeOf(outline.outer, edge?.length ?? 0),
+      });
+    }
+    for (const which of ['start', 'end'] as const) {
+      const end = which === 'start' ? fit.chain.start : fit.chain.end;
+      if (end.kind !== 'slot') continue;
+      const joint = which === 'start' ? 'pivot_0' : `pivot_${n}`;
+      const c = joints.get(joint)!;
+      parts.push({
+        id: `slider_${which}`,
+        kind: 'slider block',
+        stackLayer: layerOf.get(`slider_${which}`) ?? 3,
+        outline: block(c, end.direction, 2 * e, e),
+        exactOutline: false,
+        holes: [hole(c, joint)],
+        meltEdge: null,
+      });
+    }
+    for (const link of links) {
+      const ends = [
+        joints.get(link.bodyA === 'die_body' ? `${link.id}_ground` : `${link.id}_a`)!,
+        joints.get(`${link.id}_b`)!,
+      ] as const;
+      parts.push({
+        id: link.id,
+        kind: 'link',
+        stackLayer: layerOf.get(link.id) ?? 1,
+        outline: capsule(ends[0], ends[1], e),
+        exactOutline: false,
+        holes: [
+          hole(ends[0], link.bodyA === 'die_body' ? `${link.id}_ground` : `${link.id}_a`),
+          hole(ends[1], `${link.id}_b`),
+        ],
+        meltEdge: null,
+      });
+    }
+    return parts;
+  };
+
+  const achievedOf = (i: number): { region: Region; deviation: number } => {
+    const driven = plan.mechanisation?.status === 'mechanised' ? plan.mechanisation.stations[i] : undefined;
+    const fitted = fit.stations[i]!;
+    return driven
+      ? { region: driven.achievedOrifice, deviation: driven.deviationMm }
+      : { region: fitted.achievedOrifice, deviation: fitted.maxDeviationMm };
+  };
+  const stations: DrawnStation[] = schedule.stations.map((s, i) => {
+    const achieved = achievedOf(i);
+    return {
+      index: i,
+      positionM: s.positionM,
+      target: s.orifice,
+      achieved: achieved.region,
+      deviationMm: achieved.deviation,
+      parts: partsAt(stationJoints[i]!),
+    };
+  });
+
+  const steps = intermediateConfigurations(plan, schedule, stationJoints);
+  const configurations = [...stationJoints, ...steps.joints];
+  const sweptEnvelope = unionRegions(
+    configurations.flatMap((j) => partsAt(j).map((p) => ({ outer: p.outline, holes: [] }))),
+  );
+
+  const groundHoles: DrawnHole[] = [];
+  for (const j of mechanism.joints) {
+    if (j.type !== 'revolute' || !j.bodies.includes('die_body')) continue;
+    groundHoles.push(hole(j.stationPositions[0]!, j.id));
+  }
+  const slots: DrawnSlot[] = [];
+  for (const which of ['start', 'end'] as const) {
+    const end = which === 'start' ? fit.chain.start : fit.chain.end;
+    if (end.kind !== 'slot') continue;
+    const lo = Math.min(...end.travelMm);
+    const hi = Math.max(...end.travelMm);
+    const at = (t: number): Point => [end.origin[0] + t * end.direction[0], end.origin[1] + t * end.direction[1]];
+    slots.push({ joint: `slot_${which}`, from: at(lo), to: at(hi), widthMm: 2 * e });
+  }
+  const actuators: DrawnActuator[] = mechanism.actuators.map((a) => {
+    const joint = jointById.get(a.joint);
+    const bodies = joint?.bodies ?? ['die_body', 'die_body'];
+    const onDieBody = bodies.includes('die_body');
+    return {
+      id: a.id,
+      joint: a.joint,
+      kind: a.kind,
+      at: joint?.stationPositions[0] ?? [0, 0],
+      onDieBody,
+      drives: bodies[0] === 'die_body' ? bodies[1] : bodies[0],
+      stationValues: a.stationValues,
+    };
+  });
+  return {
+    ok: true,
+    model: {
+      scheduleName: schedule.name,
+      polymer: schedule.material,
+      plateThicknessMm: schedule.plates.thicknessMm,
+      pinDiameterMm: schedule.plates.pivotHoleDiameterMm,
+      holeDiameterMm,
+      dieTemperatureC: schedule.process.dieTemperatureC,
+      stackLayers: Math.max(...mechanism.bodies.map((b) => b.layer)),
+      opening: fit.opening,
+      stations,
+      groundHoles,
+      slots,
+      actuators,
+      sweptEnvelope,
+      sweepNote: steps.note,
+      findings: plan.findings,
+      cautions: plan.cautions,
+    },
+  };
+}
+
+/**
+ * Joint positions between the stations: the plan's mechanism solved at actuator values interpolated in
+ * `STEPS_PER_TRANSITION` steps along every transition (and back to the first station when the schedule repeats), each
+ * solve started from the one before. Empty, with the reason, when the plan has no driven model or a solve fails or
+ * lands away from the next station (the envelope then covers the stations only).
+ */
+function intermediateConfigurations(
+  plan: Plan,
+  schedule: Schedule,
+  stationJoints: readonly ReadonlyMap<string, Point>[],
+): { readonly joints: Map<string, Point>[]; readonly note: string } {
+  const stationsOnly = (why: string) => ({
+    joints: [],
+    note: `swept envelope over the ${stationJoints.length} stations only (${why})`,
+  });
+  const model = plan.mechanisation?.status === 'mechanised' ? plan.mechanisation.model : null;
+  const actuators = plan.mechanism?.actuators ?? [];
+  if (!model || actuators.length === 0) return stationsOnly('the plan has no driven mechanism');
+  const jointIds = plan.mechanism!.joints.map((j) => j.id);
+  const valuesAt = (i: number) =>
+    actuators.map((a) => (a.kind === 'rotary' ? toRadians(a.stationValues[i]!) : a.stationValues[i]!));
+  const read = (pose: Pose) => new Map(jointIds.map((id) => [id, jointPoint(pose, id)] as const));
+  const far = (pose: Pose, joints: ReadonlyMap<string, Point>) =>
+    jointIds.some((id) => {
+      const p = jointPoint(pose, id);
+      const q = joints.get(id)!;
+      return Math.hypot(p[0] - q[0], p[1] - q[1]) > ARRIVAL_TOLERANCE_MM;
+    });
+  const first = solvePosition(model, valuesAt(0), { start: initialPose(model) });
+  if (first.status !== 'converged' || far(first.pose, stationJoints[0]!)) {
+    return stationsOnly('the mechanism could not be put back at the first station');
+  }
+  const count = stationJoints.length;
+  const legs = schedule.repeatLengthM !== null ? count : count - 1;
+  const out: Map<string, Point>[] = [];
+  let pose = first.pose;
+  for (let leg = 0; leg < legs; leg++) {
+    const from = valuesAt(leg);
+    const toIndex = (leg + 1) % count;
+    const to = valuesAt(toIndex);
+    for (let s = 1; s <= STEPS_PER_TRANSITION; s++) {
+      const t = s / STEPS_PER_TRANSITION;
+      const solved = solvePosition(
+        model,
+        from.map((v, k) => v + (to[k]! - v) * t),
+        { start: pose },
+      );
+      if (solved.status !== 'converged')
+        return stationsOnly(`a solve between stations ${leg + 1} and ${toIndex + 1} did not converge`);
+      pose = solved.pose;
+      if (s < STEPS_PER_TRANSITION) out.push(read(pose));
+    }
+    if (far(pose, stationJoints[toIndex]!)) {
+      return stationsOnly(`the motion from station ${leg + 1} does not arrive at station ${toIndex + 1}`);
+    }
+  }
+  return {
+    joints: out,
+    note: `swept envelope over the ${count} stations and ${out.length} configurations between them (${STEPS_PER_TRANSITION} steps per transition)`,
+  };
+}
+
+/** A solve between stations must arrive this close to the plan's next station to count as the same motion, mm. */
+const ARRIVAL_TOLERANCE_MM = 1e-3;
+
+/**
+ * The melt edge of a `plateOutline` ring: from the last point of the round end at a (where the edge starts), through
+ * the shaped edge points if any, to the first point of the round end at b (the ring's first point).
+ */
+function meltEdgeOf(outer: Ring, edgePoints: number): Point[] {
+  return [...outer.slice(outer.length - 1 - edgePoints), outer[0]!];
+}
+
+function unit(a: Point, b: Point): Point {
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  return len > 0 ? [(b[0] - a[0]) / len, (b[1] - a[1]) / len] : [1, 0];
+}
+
+/** Distance from p to a ring's boundary, mm. */
+function ringDistance(p: Point, ring: Ring): number {
+  let best = Number.POSITIVE_INFINITY;
+  for (let i = 0; i < ring.length; i++) {
+    const a = ring[i]!;
+    const b = ring[(i + 1) % ring.length]!;
+    const dx = b[0] - a[0];
+    const dy = b[1] - a[1];
+    const len2 = dx * dx + dy * dy;
+    const t = len2 > 0 ? Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
+    best = Math.min(best, Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy));
+  }
+  return best;
+}
+
+/** A regular polygon of `sides` vertices on a circle of radius r round c, counter-clockwise. */
+function disc(c: Point, r: number, sides: number): Point[] {
+  return Array.from({ length: sides }, (_, k): Point => {
+    const t = (2 * Math.PI * k) / sides;
+    return [c[0] + r * Math.cos(t), c[1] + r * Math.sin(t)];
+  });
+}
+
+/** A capsule (stadium) of half width r round the segment a–b, counter-clockwise, chord error under 0.01 mm. */
+function capsule(a: Point, b: Point, r: number): Point[] {
+  const u = unit(a, b);
+  const base = Math.atan2(u[1], u[0]);
+  const steps = Math.max(4, Math.ceil(Math.PI / (2 * Math.acos(1 - Math.min(0.01 / r, 1)))));
+  const out: Point[] = [];
+  for (const [c, from] of [
+    [b, base - Math.PI / 2],
+    [a, base + Math.PI / 2],
+  ] as const) {
+    for (let k = 0; k <= steps; k++) {
+      const t = from + (Math.PI * k) / steps;
+      out.push([c[0] + r * Math.cos(t), c[1] + r * Math.sin(t)]);
+    }
+  }
+  return out;
+}
+
+/** A rectangle 2·`halfLength` long along `direction` and 2·`halfWidth` wide, centred on c, counter-clockwise. */
+function block(c: Point, direction: Point, halfLength: number, halfWidth: number): Point[] {
+  const u = unit([0, 0], direction);
+  const v: Point = [-u[1], u[0]];
+  const h = halfLength;
+  return [
+    [c[0] - u[0] * h - v[0] * halfWidth, c[1] - u[1] * h - v[1] * halfWidth],
+    [c[0] + u[0] * h - v[0] * halfWidth, c[1] + u[1] * h - v[1] * halfWidth],
+    [c[0] + u[0] * h + v[0] * halfWidth, c[1] + u[1] * h + v[1] * halfWidth],
+    [c[0] - u[0] * h + v[0] * halfWidth, c[1] - u[1] * h + v[1] * halfWidth],
+  ];
+}

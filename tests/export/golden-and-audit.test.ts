@@ -1,0 +1,114 @@
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import {
+  partIds,
+  previewPlots,
+  thermalScale,
+  writeDieBodyDxf,
+  writePartDxf,
+  writePartsSheetDxf,
+  writePreviewSvg,
+  writeStationsDxf,
+} from '../../src/export/index.js';
+import { planDemo } from './demo-drawings.js';
+
+/**
+ * Golden files of the demo plan's drawings (tests/export/golden/), with every number rounded to 3 decimals so that
+ * round-off in the last digits of the planner does not count. Regenerate after a deliberate change with
+ * `UPDATE_GOLDEN=1 npx vitest run tests/export/golden-and-audit.test.ts`, and read the diff before committing it.
+ */
+const GOLDEN = new URL('./golden/', import.meta.url);
+const UPDATE = process.env.UPDATE_GOLDEN === '1';
+
+const { plan, model, schedule } = planDemo();
+const cold = thermalScale('cold', schedule.process.dieTemperatureC);
+const drawings: Record<string, string> = {
+  'plates.dxf': writePartsSheetDxf(model, cold),
+  'die-body.dxf': writeDieBodyDxf(model, cold),
+  'stations.dxf': writeStationsDxf(model, cold),
+  'preview.svg': writePreviewSvg(model, previewPlots(plan, schedule)),
+};
+for (const id of partIds(model)) drawings[`plates-${id}.dxf`] = writePartDxf(model, id, cold)!;
+
+/** Every decimal number rounded to 3 decimals (and -0.000 written 0.000). */
+function rounded(text: string): string {
+  return text.replace(/-?\d+\.\d+/g, (m) => {
+    const r = Number(m).toFixed(3);
+    return r === '-0.000' ? '0.000' : r;
+  });
+}
+
+describe('golden drawings of the demo plan (numbers rounded to 3 decimals)', () => {
+  for (const [name, text] of Object.entries(drawings)) {
+    it(`${name} equals tests/export/golden/${name}`, () => {
+      const file = new URL(name, GOLDEN);
+      if (UPDATE) {
+        mkdirSync(GOLDEN, { recursive: true });
+        writeFileSync(file, rounded(text));
+      }
+      expect(rounded(text)).toBe(readFileSync(file, 'utf8'));
+    });
+  }
+});
+
+/** Debian's python3-ezdxf under the system Python (not the first python3 on PATH). */
+const PYTHON = '/usr/bin/python3';
+const ezdxfAvailable = spawnSync(PYTHON, ['-c', 'import ezdxf'], { stdio: 'ignore' }).status === 0;
+
+/** Reads every file given with ezdxf, audits it and prints {file: {errors, fixes, messages}} as JSON. */
+const AUDIT = `
+import json, sys, ezdxf
+out = {}
+for path in sys.argv[1:]:
+    doc = ezdxf.readfile(path)
+    auditor = doc.audit()
+    out[path] = {"errors": len(auditor.errors), "fixes": len(auditor.fixes),
+                 "messages": [e.message for e in auditor.errors] + [f.message for f in auditor.fixes],
+                 "insunits": doc.header.get("$INSUNITS"), "entities": len(doc.modelspace())}
+print(json.dumps(out))
+`;
+
+describe('strict second reader', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'drawings-'));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it.skipIf(!ezdxfAvailable)(
+    'ezdxf (Debian python3-ezdxf via /usr/bin/python3) opens every demo DXF, its audit reports no errors and no fixes, $INSUNITS 4 (skipped only when /usr/bin/python3 cannot import ezdxf)',
+    () => {
+      const files = Object.entries(drawings)
+        .filter(([name]) => name.endsWith('.dxf'))
+        .map(([name, text]) => {
+          const path = join(dir, name);
+          writeFileSync(path, text);
+          return path;
+        });
+      expect(files).toHaveLength(3 + 5);
+      const report = JSON.parse(execFileSync(PYTHON, ['-c', AUDIT, ...files], { encoding: 'utf8' })) as Record<
+        string,
+        { errors: number; fixes: number; messages: string[]; insunits: number; entities: number }
+      >;
+      for (const path of files) {
+        const r = report[path]!;
+        expect(r.messages, path).toEqual([]);
+        expect(r.errors).toBe(0);
+        expect(r.fixes).toBe(0);
+        // Autodesk DXF reference, HEADER section: $INSUNITS 4 = millimetres
+        expect(r.insunits).toBe(4);
+        expect(r.entities).toBeGreaterThan(0);
+      }
+    },
+  );
+
+  it.skipIf(!ezdxfAvailable)(
+    'the same ezdxf run refuses a truncated drawing, so the check above can fail (skipped only when /usr/bin/python3 cannot import ezdxf)',
+    () => {
+      const broken = join(dir, 'broken.dxf');
+      writeFileSync(broken, drawings['plates.dxf']!.slice(0, 2000));
+      const run = spawnSync(PYTHON, ['-c', AUDIT, broken], { encoding: 'utf8' });
+      expect(run.status).not.toBe(0);
+    },
+  );
+});
