@@ -1,27 +1,74 @@
 import { pino } from 'pino';
 import { buildApp } from './app.js';
 import { loadConfig } from './config.js';
+import { SqlitePlanStore } from './store/index.js';
 
-const config = loadConfig(process.env);
+let config: ReturnType<typeof loadConfig>;
+try {
+  config = loadConfig(process.env);
+} catch (err) {
+  console.error(`die-motion-planner: ${err instanceof Error ? err.message : String(err)}`);
+  process.exit(2);
+}
 const logger = pino({
   level: config.logLevel,
   formatters: { level: (label) => ({ level: label }) },
-  redact: ['req.headers.authorization'],
+  // tokens never reach the log, whatever carries them
+  redact: {
+    paths: ['req.headers.authorization', 'headers.authorization', 'authorization', '*.token'],
+    censor: '[redacted]',
+  },
 });
+const store = new SqlitePlanStore(config.databasePath);
 const app = await buildApp({
   logger,
+  store,
   rateLimitPerMinute: config.rateLimitPerMinute,
   planTimeLimitS: config.planTimeLimitS,
+  planWorkers: config.planWorkers,
+  shutdownGraceMs: config.shutdownGraceS * 1000,
+  apiTokens: config.apiTokens,
 });
 try {
   await app.listen({ host: config.host, port: config.port });
 } catch (err) {
   logger.fatal({ err }, 'could not start the service');
+  store.close();
   process.exit(1);
 }
+if (config.apiTokens.length === 0) {
+  logger.warn(
+    { host: config.host, ignoredHost: config.hostIgnored },
+    config.hostIgnored
+      ? `no API_TOKENS: every route is open, so the service listens on loopback only (${config.host}), not on HOST=${config.hostIgnored}`
+      : `no API_TOKENS: every route is open; listening on loopback only (${config.host})`,
+  );
+} else {
+  logger.info({ tokens: config.apiTokens.map((t) => `${t.name}:${t.scope}`) }, 'API tokens required on /v1 routes');
+}
+logger.info(
+  { database: config.databasePath, planWorkers: config.planWorkers, planTimeLimitS: config.planTimeLimitS },
+  'plan store and workers ready',
+);
+
+let stopping = false;
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.once(signal, () => {
-    logger.info({ signal }, 'shutting down');
-    void app.close().then(() => process.exit(0));
+  process.on(signal, () => {
+    if (stopping) return;
+    stopping = true;
+    logger.info({ signal, graceS: config.shutdownGraceS }, 'shutting down: running plans finish or are queued again');
+    // a hard stop in case closing hangs: queued plans are safe in the store either way
+    setTimeout(() => process.exit(1), (config.shutdownGraceS + 10) * 1000).unref();
+    void app
+      .close()
+      .then(() => {
+        store.close();
+        logger.info('stopped');
+        process.exit(0);
+      })
+      .catch((err: unknown) => {
+        logger.error({ err }, 'shutdown failed');
+        process.exit(1);
+      });
   });
 }

@@ -32,12 +32,33 @@ export const ERROR_CATALOGUE = Object.freeze({
   not_found: {
     status: 404,
     meaning: 'No such route or resource.',
-    fix: 'Check the path and the id; plans are kept by the service that created them.',
+    fix: 'Check the path and the id; a deleted plan is gone.',
+  },
+  unauthorized: {
+    status: 401,
+    meaning: 'The service has API tokens and the request carries none, or one it does not know.',
+    fix: 'Send `Authorization: Bearer <token>` with a token the service owners gave you.',
+  },
+  forbidden: {
+    status: 403,
+    meaning: 'The token is known but its scope does not allow this: a `read` token cannot post or delete plans.',
+    fix: 'Use a token with the `write` scope for `POST /v1/plans` and `DELETE /v1/plans/{id}`.',
+  },
+  not_ready: {
+    status: 409,
+    meaning: 'The plan is still queued or running: it has no result to download yet.',
+    fix: 'Poll `GET /v1/plans/{id}` (it shows `status` and `progress`) until it is `done`, `incomplete` or `failed`; `Retry-After` says when to look again.',
   },
   no_motion: {
     status: 409,
     meaning: 'The plan has no actuator motion to download: it failed, or its mechanism has no actuators.',
     fix: 'Read the plan (`GET /v1/plans/{id}`): its `error`, `outcome.shortfalls` and findings say why; change the schedule and plan again.',
+  },
+  no_mechanism: {
+    status: 409,
+    meaning:
+      'The plan has no mechanism to draw (plates, die body, stations, preview): it failed before a chain was fitted.',
+    fix: 'Read the plan (`GET /v1/plans/{id}`): its `error` and findings say why; change the schedule and plan again.',
   },
   table_too_large: {
     status: 409,
@@ -51,10 +72,20 @@ export const ERROR_CATALOGUE = Object.freeze({
       'The schedule is too large to plan inside one request: its station boundaries add up to more than the plan work limit (the chain fit grows with the boundary length of every station).',
     fix: 'Send fewer stations (stations between which the profile changes little add little), or plan the schedule in parts; checks (`POST /v1/checks`) have no such limit.',
   },
+  idempotency_conflict: {
+    status: 422,
+    meaning: 'The Idempotency-Key was used before with a different schedule.',
+    fix: 'Use a new key for a new schedule; repeat a key only to repeat the same request (same schedule, any formatting).',
+  },
   rate_limited: {
     status: 429,
     meaning: 'Too many requests in a short time.',
     fix: 'Wait the number of seconds in the `Retry-After` header and try again.',
+  },
+  service_busy: {
+    status: 503,
+    meaning: 'Too many checks are waiting for a worker, or the service is shutting down.',
+    fix: 'Wait the seconds in `Retry-After` and try again.',
   },
   internal: {
     status: 500,

@@ -1,1 +1,17 @@
-export { type PlanRecord, type PlanStore, MemoryPlanStore } from './plan-store.js';
+export {
+  type ClaimedPlan,
+  FINISHED_STATUSES,
+  type NewPlan,
+  type PlanEntry,
+  type PlanListQuery,
+  type PlanPage,
+  type PlanProgress,
+  type PlanRecord,
+  type PlanResult,
+  type PlanStatus,
+  type PlanStore,
+} from './plan-store.js';
+export { isPlanCursor, SqlitePlanStore } from './sqlite-plan-store.js';
+export { decodeJson, encodeJson } from './json-codec.js';
+export { scheduleHash, textHash } from './schedule-hash.js';
+export { MIGRATIONS } from './migrations.js';

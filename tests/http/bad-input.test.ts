@@ -8,7 +8,9 @@ import { readablePlan } from '../../src/http/readable-plan-report.js';
 import { unreadableFigure } from '../../src/http/readable-report.js';
 import { FIELD_RANGES } from '../../src/http/schedule-schema.js';
 import { toFindingWire } from '../../src/http/to-check-report.js';
-import { MemoryPlanStore } from '../../src/store/index.js';
+import { planResult } from '../../src/jobs/index.js';
+import { SqlitePlanStore, scheduleHash } from '../../src/store/index.js';
+import { makeTestApp } from '../support/test-app.js';
 
 /**
  * Issue 9, "bad input never a 5xx": one test per case the request generator found. References: the HTTP status
@@ -16,14 +18,14 @@ import { MemoryPlanStore } from '../../src/store/index.js';
  * (src/http/schedule-schema.ts FIELD_RANGES).
  */
 type App = Awaited<ReturnType<typeof buildApp>>;
-const store = new MemoryPlanStore();
+const store = new SqlitePlanStore(':memory:');
 let app: App;
 beforeAll(async () => {
-  app = await buildApp({ logger: pino({ level: 'silent' }), store });
-  await app.ready();
+  app = await makeTestApp({ store });
 });
 afterAll(async () => {
   await app.close();
+  store.close();
 });
 
 const rect = [
@@ -174,7 +176,24 @@ describe('a stored plan is always readable', () => {
         findings: [{ code: 'X', severity: 'warning' as const, value: Number.POSITIVE_INFINITY, message: 'x' }],
       },
     };
-    store.put(poisoned);
+    // stored the way a worker stores a finished plan (queued, claimed, finished with its written-out result)
+    store.add({
+      id: poisoned.id,
+      createdAt: poisoned.createdAt,
+      schedule: poisoned.schedule,
+      scheduleHash: scheduleHash(poisoned.schedule),
+      requestFindings: [],
+      client: null,
+      idempotencyKey: null,
+    });
+    expect(store.claimNext(new Date().toISOString())?.entry.id).toBe('poisoned-plan');
+    const written = planResult(poisoned, {
+      scheduleHash: scheduleHash(poisoned.schedule),
+      startedAt: null,
+      finishedAt: new Date().toISOString(),
+    });
+    expect(written.unreadable?.path).toBe('chain.plate_lengths_mm[0]');
+    expect(store.finish('poisoned-plan', written.result, new Date().toISOString())).toBe(true);
     const res = await request(app.server).get('/v1/plans/poisoned-plan');
     expect(res.status).toBe(200);
     expect(res.body.status).toBe('failed');

@@ -1,37 +1,63 @@
 import { randomUUID } from 'node:crypto';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { planSchedule } from '../../pipeline/index.js';
-import type { PlanStore } from '../../store/index.js';
+import { ringPerimeter } from '../../geometry/index.js';
+import type { PlanJobs } from '../../jobs/index.js';
+import { processCautions } from '../../safety/index.js';
+import { isPlanCursor, type PlanEntry, type PlanStore, scheduleHash } from '../../store/index.js';
 import { errorBody } from '../error-catalogue.js';
-import { PlanAcceptedWire, PlanWire } from '../plan-schema.js';
+import { matchesEtag, planEtag } from '../plan-gate.js';
+import {
+  IdempotencyHeadersWire,
+  PlanCreatedWire,
+  PlanIdParamsWire,
+  PlanJobWire,
+  PlanListQueryWire,
+  PlanListWire,
+} from '../plan-job-schema.js';
+import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
 import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
-import { readablePlan } from '../readable-plan-report.js';
-import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
-import { ringPerimeter } from '../../geometry/index.js';
+import { toCautionWire, toFindingWire } from '../to-check-report.js';
 
 /**
- * `POST /v1/plans` and `GET /v1/plans/{id}`. The plan is computed before the answer (the job queue comes with the
- * service work); the record is stored whole, so a failure leaves nothing half-written.
- */
-/**
- * Largest total outer-boundary length of a schedule's stations a plan request may fit, mm: about 180 stations of the
- * demo strip (about 110 mm of boundary each). Measured on a 2-core machine: 100 such stations plan in about 6 s, 400 in
- * about 55 s (README), so a plan stays within about half a minute until plans move to background jobs.
+ * Largest total outer-boundary length of a schedule's stations a plan may fit, mm: about 180 stations of the demo
+ * strip (about 110 mm of boundary each). Measured on a 2-core machine: 100 such stations plan in about 6 s, 400 in
+ * about 55 s (README), so one plan holds a worker for about half a minute at most.
  */
 export const PLAN_BOUNDARY_LIMIT_MM = 20_000;
 
-export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number): FastifyPluginAsyncZod {
+export interface PlanRouteDeps {
+  readonly store: PlanStore;
+  readonly jobs: PlanJobs;
+  /** Seconds a client is told (Retry-After) to wait before polling a plan that is not finished. */
+  readonly pollAfterS: number;
+}
+
+const errors = { 400: ErrorWire, 401: ErrorWire, 403: ErrorWire, 429: ErrorWire };
+
+/**
+ * `POST /v1/plans` stores the schedule and queues the plan (answering 202 before any planning), `GET /v1/plans/{id}`
+ * shows where it stands or its result, `GET /v1/plans` lists plans, `DELETE /v1/plans/{id}` stops and removes one.
+ */
+export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyPluginAsyncZod {
   return async (app) => {
+    const notFound = (id: string, requestId: string) => ({
+      ...errorBody('not_found', `No plan with id ${id}.`),
+      request_id: requestId,
+    });
+
     app.post(
       '/v1/plans',
       {
         schema: {
-          summary: 'Plan a schedule: check, fit the plate chain, build the mechanism',
+          summary: 'Plan a schedule: stored and queued at once, computed by a worker',
+          description:
+            'Validates the schedule, stores it and queues the plan, then answers 202 with `Location: /v1/plans/{id}` before any planning. Poll the Location until `status` is `done`, `incomplete` or `failed`. With an `Idempotency-Key` header, repeating the request returns the same plan. The 202 carries the material’s safety cautions; errors carry none (the plan, once read, does).',
           tags: ['plans'],
           body: ScheduleWire,
-          response: { 202: PlanAcceptedWire, 400: ErrorWire, 422: ErrorWire },
+          headers: IdempotencyHeadersWire,
+          response: { 202: PlanCreatedWire, ...errors, 413: ErrorWire, 415: ErrorWire, 422: ErrorWire },
         },
         preValidation: keepRawBody,
       },
@@ -46,13 +72,13 @@ export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number
             request_id: request.id,
           });
         }
-        // the chain fit's work grows with every station's boundary length: refuse what would hold the service
+        // the chain fit's work grows with every station's boundary length: refuse what would hold a worker too long
         const boundaryMm = schedule.stations.reduce((sum, s) => sum + ringPerimeter(s.orifice.outer), 0);
         if (boundaryMm > PLAN_BOUNDARY_LIMIT_MM) {
           return reply.code(422).send({
             ...errorBody(
               'plan_too_large',
-              `The stations' boundaries add up to ${Math.round(boundaryMm / 1000)} m, more than the ${PLAN_BOUNDARY_LIMIT_MM / 1000} m one plan request may fit.`,
+              `The stations' boundaries add up to ${Math.round(boundaryMm / 1000)} m, more than the ${PLAN_BOUNDARY_LIMIT_MM / 1000} m one plan may fit.`,
               [
                 {
                   path: 'stations',
@@ -63,21 +89,77 @@ export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number
             request_id: request.id,
           });
         }
-        const started = performance.now();
-        // the chain search stops at the time limit with what it has (and says so), so no plan holds the server long
-        const computed = planSchedule(schedule, { stop: () => performance.now() - started > timeLimitS * 1000 });
-        const plan = { ...computed, findings: [...unknownScheduleFields(request, 'plans'), ...computed.findings] };
-        const id = randomUUID();
-        // checked before it is stored: a plan that could not be written out is stored as failed, with the reason
-        const readable = readablePlan({ id, createdAt: now().toISOString(), schedule, plan });
-        if (readable.unreadable) request.log.warn({ plan: id, unreadable: readable.unreadable }, 'plan not finite');
-        store.put(readable.record);
-        const status = readable.record.plan.status;
-        request.log.info(
-          { plan: id, status, plates: plan.fit?.plateCount, ms: Math.round(performance.now() - started) },
-          'plan computed',
-        );
-        return reply.code(202).header('location', `/v1/plans/${id}`).send({ id, status });
+        const hash = scheduleHash(schedule);
+        const key = request.headers['idempotency-key'] ?? null;
+        const { entry, created } = store.add({
+          id: randomUUID(),
+          createdAt: new Date().toISOString(),
+          schedule,
+          scheduleHash: hash,
+          requestFindings: unknownScheduleFields(request, 'plans'),
+          client: request.principal?.name ?? null,
+          idempotencyKey: typeof key === 'string' ? key : null,
+        });
+        if (!created && entry.scheduleHash !== hash) {
+          return reply.code(422).send({
+            ...errorBody(
+              'idempotency_conflict',
+              `The Idempotency-Key was used for plan ${entry.id} with another schedule (hash ${entry.scheduleHash.slice(0, 12)}…, this one ${hash.slice(0, 12)}…).`,
+              [{ path: 'idempotency-key', message: 'use a new key for a new schedule' }],
+            ),
+            request_id: request.id,
+          });
+        }
+        if (created) {
+          jobs.kick();
+          request.log.info({ plan: entry.id, schedule: hash.slice(0, 12) }, 'plan queued');
+        } else {
+          reply.header('idempotent-replayed', 'true');
+        }
+        const location = `/v1/plans/${entry.id}`;
+        const now = store.entry(entry.id) ?? entry;
+        return reply
+          .code(202)
+          .header('location', location)
+          .header('retry-after', String(pollAfterS))
+          .send({
+            id: entry.id,
+            status: now.status,
+            schedule_hash: entry.scheduleHash,
+            location,
+            cautions: processCautions(schedule.material, schedule.process.dieTemperatureC).map(toCautionWire),
+          });
+      },
+    );
+
+    app.get(
+      '/v1/plans',
+      {
+        schema: {
+          summary: 'List plans, newest first, with filters and paging',
+          tags: ['plans'],
+          querystring: PlanListQueryWire,
+          response: { 200: PlanListWire, ...errors },
+        },
+      },
+      async (request, reply) => {
+        const q = request.query;
+        if (q.cursor !== undefined && !isPlanCursor(q.cursor)) {
+          return reply.code(400).send({
+            ...errorBody('malformed_request', 'The cursor is not one this service gave.', [
+              { path: 'cursor', message: 'pass next_cursor of the previous page as given' },
+            ]),
+            request_id: request.id,
+          });
+        }
+        const page = store.list({
+          limit: q.limit,
+          ...(q.status === undefined ? {} : { status: q.status }),
+          ...(q.name === undefined ? {} : { name: q.name }),
+          ...(q.created_since === undefined ? {} : { createdSince: new Date(q.created_since).toISOString() }),
+          ...(q.cursor === undefined ? {} : { after: q.cursor }),
+        });
+        return { items: page.items.map(summary), next_cursor: page.next };
       },
     );
 
@@ -85,24 +167,96 @@ export function planRoutes(store: PlanStore, now: () => Date, timeLimitS: number
       '/v1/plans/:id',
       {
         schema: {
-          summary: 'A plan with its stations, chain, mechanism, findings and cautions',
+          summary: 'A plan: where it stands, or its stations, chain, mechanism, motion, findings and cautions',
+          description:
+            'While `queued` or `running` the plan has no result yet (and `Retry-After` says when to look again); `progress` shows the stage. `done`: the plan meets the request; `incomplete`: computed but short of it (`outcome.shortfalls`); `failed`: no chain (see `error`). A finished plan carries an ETag: send it back as If-None-Match for a 304.',
           tags: ['plans'],
-          params: z.object({ id: z.string().describe('plan id from POST /v1/plans') }),
-          response: { 200: PlanWire, 404: ErrorWire },
+          params: PlanIdParamsWire,
+          response: {
+            200: PlanJobWire,
+            304: z.null().describe('not modified: the ETag sent in If-None-Match is current (no body)'),
+            ...errors,
+            404: ErrorWire,
+          },
         },
       },
       async (request, reply) => {
-        const record = store.get(request.params.id);
-        if (!record) {
-          return reply
-            .code(404)
-            .send({ ...errorBody('not_found', `No plan with id ${request.params.id}.`), request_id: request.id });
+        const { id } = request.params;
+        const entry = store.entry(id);
+        if (!entry) return reply.code(404).send(notFound(id, request.id));
+        if (entry.status === 'queued' || entry.status === 'running') {
+          return reply.header('retry-after', String(pollAfterS)).send(pending(entry));
         }
-        const readable = readablePlan(record);
-        if (readable.unreadable)
-          request.log.warn({ plan: record.id, unreadable: readable.unreadable }, 'plan not finite');
-        return readable.report;
+        const etag = planEtag(entry, 'plan');
+        const report = store.report(id);
+        if (!etag || report === undefined) return reply.code(404).send(notFound(id, request.id));
+        reply.header('etag', etag).header('cache-control', 'private, no-cache');
+        if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send(null);
+        // stored as sent: the report was written and checked when the plan finished
+        return reply.header('content-type', 'application/json; charset=utf-8').send(report as never);
       },
     );
+
+    app.delete(
+      '/v1/plans/:id',
+      {
+        schema: {
+          summary: 'Delete a plan: a running plan is stopped; its result, schedule and Idempotency-Key are removed',
+          tags: ['plans'],
+          params: PlanIdParamsWire,
+          response: { 204: z.null().describe('deleted (no body)'), ...errors, 404: ErrorWire },
+        },
+      },
+      async (request, reply) => {
+        const { id } = request.params;
+        if (!store.entry(id)) return reply.code(404).send(notFound(id, request.id));
+        await jobs.cancel(id);
+        store.delete(id);
+        request.log.info({ plan: id }, 'plan deleted');
+        return reply.code(204).send(null);
+      },
+    );
+
+    /** The report of a plan that has no result yet. */
+    const pending = (entry: PlanEntry) => {
+      const schedule = store.schedule(entry.id);
+      return {
+        id: entry.id,
+        name: entry.name,
+        status: entry.status,
+        outcome: { meets_request: false, shortfalls: [] },
+        chains_tried: [],
+        created_at: entry.createdAt,
+        findings: store.requestFindings(entry.id).map(toFindingWire),
+        cautions: schedule
+          ? processCautions(schedule.material, schedule.process.dieTemperatureC).map(toCautionWire)
+          : [],
+        stations: [],
+        chain: null,
+        mechanisation: null,
+        mechanism: null,
+        motion: null,
+        schedule_hash: entry.scheduleHash,
+        plan_hash: null,
+        started_at: entry.startedAt,
+        finished_at: null,
+        progress: entry.progress,
+      };
+    };
+  };
+}
+
+function summary(entry: PlanEntry) {
+  return {
+    id: entry.id,
+    name: entry.name,
+    status: entry.status,
+    created_at: entry.createdAt,
+    started_at: entry.startedAt,
+    finished_at: entry.finishedAt,
+    schedule_hash: entry.scheduleHash,
+    plan_hash: entry.planHash,
+    progress: entry.progress,
+    location: `/v1/plans/${entry.id}`,
   };
 }

@@ -1,0 +1,23 @@
+import { createHash } from 'node:crypto';
+import type { PlanEntry } from '../store/index.js';
+import { SERVICE_VERSION } from '../version.js';
+
+/**
+ * Strong ETag of a finished plan's resource: the plan's hash, the service version and the resource (path suffix and
+ * query), so a download changes its tag exactly when its bytes could change.
+ */
+export function planEtag(entry: PlanEntry, resource: string): string | null {
+  if (entry.planHash === null) return null;
+  const salt = createHash('sha256').update(`${SERVICE_VERSION}\n${resource}`).digest('hex').slice(0, 12);
+  return `"${entry.planHash.slice(0, 32)}-${salt}"`;
+}
+
+/** True when an If-None-Match header names `etag` (or is `*`); weak tags compare by their opaque part. */
+export function matchesEtag(ifNoneMatch: string | string[] | undefined, etag: string): boolean {
+  if (ifNoneMatch === undefined) return false;
+  const text = Array.isArray(ifNoneMatch) ? ifNoneMatch.join(',') : ifNoneMatch;
+  return text.split(',').some((t) => {
+    const tag = t.trim().replace(/^W\//, '');
+    return tag === '*' || tag === etag;
+  });
+}

@@ -1,0 +1,83 @@
+import { fileURLToPath } from 'node:url';
+import { MessageChannel } from 'node:worker_threads';
+import { Piscina } from 'piscina';
+import type { Schedule } from '../domain/index.js';
+import type { CheckReport } from '../http/report-schema.js';
+import type { PlanProgress } from '../store/index.js';
+import type { CheckTask, PlanTask, PlanTaskResult } from './run-task.js';
+
+/** Sizes of the worker pool. */
+export interface WorkerPoolOptions {
+  /** Plans computed at once; each holds one thread. */
+  readonly planThreads: number;
+  /** Threads kept for checks besides the plan threads, so a check never waits behind a long plan. @default 1 */
+  readonly checkThreads?: number;
+  /** Checks that may wait for a thread; more are refused (503). @default 64 */
+  readonly maxCheckQueue?: number;
+}
+
+/** Thrown by `check` when too many checks wait already. */
+export class PoolBusyError extends Error {
+  constructor() {
+    super('too many checks are waiting for a worker');
+  }
+}
+
+/**
+ * Worker threads (piscina) that run plans and checks off the service thread, so `/healthz` and reads answer while
+ * plans compute. Tasks are plain data; a plan reports progress through a message port and stops when its signal is
+ * aborted (the thread is ended and replaced).
+ */
+export class WorkerPool {
+  private readonly piscina: Piscina;
+  private readonly maxCheckQueue: number;
+  private waitingChecks = 0;
+
+  constructor(options: WorkerPoolOptions) {
+    const threads = options.planThreads + (options.checkThreads ?? 1);
+    this.maxCheckQueue = options.maxCheckQueue ?? 64;
+    this.piscina = new Piscina({
+      filename: fileURLToPath(new URL('./worker-entry.mjs', import.meta.url)),
+      minThreads: threads,
+      maxThreads: threads,
+      idleTimeout: 60_000,
+    });
+  }
+
+  /** Computes a plan in a worker; `onProgress` hears its stages. Rejects when `signal` aborts or the thread dies. */
+  async plan(
+    task: Omit<PlanTask, 'kind' | 'progress'>,
+    signal: AbortSignal,
+    onProgress: (p: PlanProgress) => void,
+  ): Promise<PlanTaskResult> {
+    const channel = new MessageChannel();
+    channel.port1.on('message', (m: PlanProgress) => onProgress(m));
+    try {
+      const full: PlanTask = { ...task, kind: 'plan', progress: channel.port2 };
+      return (await this.piscina.run(full, { signal, transferList: [channel.port2] })) as PlanTaskResult;
+    } finally {
+      channel.port1.close();
+    }
+  }
+
+  /** Checks a schedule in a worker and returns its wire report; `PoolBusyError` when too many checks wait. */
+  async check(schedule: Schedule): Promise<CheckReport> {
+    if (this.waitingChecks >= this.maxCheckQueue) throw new PoolBusyError();
+    this.waitingChecks++;
+    try {
+      const task: CheckTask = { kind: 'check', schedule };
+      return (await this.piscina.run(task)) as CheckReport;
+    } finally {
+      this.waitingChecks--;
+    }
+  }
+
+  /** Threads alive; 0 before they start or after close. */
+  get threads(): number {
+    return this.piscina.threads.length;
+  }
+
+  async close(): Promise<void> {
+    await this.piscina.close({ force: true });
+  }
+}

@@ -1,0 +1,315 @@
+import { mkdirSync } from 'node:fs';
+import { dirname } from 'node:path';
+import Database from 'better-sqlite3';
+import type { Finding, Schedule } from '../domain/index.js';
+import type { Plan } from '../pipeline/index.js';
+import { decodeJson, encodeJson } from './json-codec.js';
+import { MIGRATIONS } from './migrations.js';
+import type {
+  ClaimedPlan,
+  NewPlan,
+  PlanEntry,
+  PlanListQuery,
+  PlanPage,
+  PlanProgress,
+  PlanRecord,
+  PlanResult,
+  PlanStatus,
+  PlanStore,
+} from './plan-store.js';
+
+interface PlanRow {
+  id: string;
+  created_at: string;
+  name: string;
+  schedule_hash: string;
+  status: PlanStatus;
+  stage: string | null;
+  fraction: number | null;
+  attempts: number;
+  started_at: string | null;
+  finished_at: string | null;
+  error: string | null;
+  plan_hash: string | null;
+}
+
+const ENTRY_COLUMNS = `p.id, p.created_at, p.name, p.schedule_hash, p.status, p.stage, p.fraction, p.attempts,
+  p.started_at, p.finished_at, p.error, r.plan_hash`;
+
+/** Decoded finished plans kept in memory, so repeated downloads of one plan do not parse it again. */
+const RECORD_CACHE_SIZE = 32;
+
+/**
+ * Plans in one SQLite file (better-sqlite3, synchronous): write-ahead log, full sync, foreign keys, schema versions in
+ * `migrations`. `path` ':memory:' keeps everything in memory (tests). The parent directory is created.
+ */
+export class SqlitePlanStore implements PlanStore {
+  private readonly db: Database.Database;
+  private readonly cache = new Map<string, PlanRecord>();
+  private readonly statements;
+
+  constructor(path: string) {
+    if (path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
+    this.db = new Database(path);
+    this.db.pragma('busy_timeout = 5000');
+    if (path !== ':memory:') this.db.pragma('journal_mode = WAL');
+    this.db.pragma('synchronous = FULL');
+    this.db.pragma('foreign_keys = ON');
+    migrate(this.db);
+    const db = this.db;
+    this.statements = {
+      entry: db.prepare(`SELECT ${ENTRY_COLUMNS} FROM plans p LEFT JOIN results r ON r.plan_id = p.id WHERE p.id = ?`),
+      byKey: db.prepare(
+        `SELECT ${ENTRY_COLUMNS} FROM plans p LEFT JOIN results r ON r.plan_id = p.id
+         WHERE coalesce(p.client, '') = coalesce(?, '') AND p.idempotency_key = ?`,
+      ),
+      insertSchedule: db.prepare(
+        'INSERT OR IGNORE INTO schedules (hash, name, schedule_json, created_at) VALUES (?, ?, ?, ?)',
+      ),
+      insertPlan: db.prepare(
+        `INSERT INTO plans (id, created_at, name, schedule_hash, status, request_findings_json, client, idempotency_key)
+         VALUES (?, ?, ?, ?, 'queued', ?, ?, ?)`,
+      ),
+      schedule: db.prepare(
+        'SELECT s.schedule_json AS json FROM plans p JOIN schedules s ON s.hash = p.schedule_hash WHERE p.id = ?',
+      ),
+      requestFindings: db.prepare('SELECT request_findings_json AS json FROM plans WHERE id = ?'),
+      finished: db.prepare(
+        `SELECT p.created_at, s.schedule_json, r.plan_json FROM plans p
+         JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
+      ),
+      report: db.prepare('SELECT report_json AS json FROM results WHERE plan_id = ?'),
+      oldestQueued: db.prepare("SELECT id FROM plans WHERE status = 'queued' ORDER BY created_at, rowid LIMIT 1"),
+      start: db.prepare(
+        `UPDATE plans SET status = 'running', attempts = attempts + 1, started_at = ?, stage = 'queued', fraction = 0
+         WHERE id = ? AND status = 'queued'`,
+      ),
+      progress: db.prepare("UPDATE plans SET stage = ?, fraction = ? WHERE id = ? AND status = 'running'"),
+      finish: db.prepare(
+        `UPDATE plans SET status = ?, error = ?, finished_at = ?, stage = NULL, fraction = NULL
+         WHERE id = ? AND status = 'running'`,
+      ),
+      insertResult: db.prepare(
+        'INSERT OR REPLACE INTO results (plan_id, plan_hash, plan_json, report_json) VALUES (?, ?, ?, ?)',
+      ),
+      requeue: db.prepare(
+        "UPDATE plans SET status = 'queued', stage = NULL, fraction = NULL WHERE id = ? AND status = 'running'",
+      ),
+      running: db.prepare("SELECT id FROM plans WHERE status = 'running'"),
+      scheduleOf: db.prepare('SELECT schedule_hash AS hash FROM plans WHERE id = ?'),
+      deletePlan: db.prepare('DELETE FROM plans WHERE id = ?'),
+      deleteOrphanSchedule: db.prepare(
+        'DELETE FROM schedules WHERE hash = ? AND NOT EXISTS (SELECT 1 FROM plans WHERE schedule_hash = ?)',
+      ),
+      counts: db.prepare(
+        "SELECT sum(status = 'queued') AS queued, sum(status = 'running') AS running FROM plans WHERE status IN ('queued', 'running')",
+      ),
+      ping: db.prepare('SELECT 1 AS one'),
+    };
+  }
+
+  add(plan: NewPlan): { entry: PlanEntry; created: boolean } {
+    return this.db.transaction(() => {
+      if (plan.idempotencyKey !== null) {
+        const earlier = this.statements.byKey.get(plan.client, plan.idempotencyKey) as PlanRow | undefined;
+        if (earlier) return { entry: toEntry(earlier), created: false };
+      }
+      this.statements.insertSchedule.run(
+        plan.scheduleHash,
+        plan.schedule.name,
+        encodeJson(plan.schedule),
+        plan.createdAt,
+      );
+      this.statements.insertPlan.run(
+        plan.id,
+        plan.createdAt,
+        plan.schedule.name,
+        plan.scheduleHash,
+        encodeJson(plan.requestFindings),
+        plan.client,
+        plan.idempotencyKey,
+      );
+      return { entry: this.entry(plan.id)!, created: true };
+    })();
+  }
+
+  entry(id: string): PlanEntry | undefined {
+    const row = this.statements.entry.get(id) as PlanRow | undefined;
+    return row ? toEntry(row) : undefined;
+  }
+
+  get(id: string): PlanRecord | undefined {
+    const cached = this.cache.get(id);
+    if (cached) return cached;
+    const row = this.statements.finished.get(id) as
+      | { created_at: string; schedule_json: string; plan_json: string }
+      | undefined;
+    if (!row) return undefined;
+    const record: PlanRecord = {
+      id,
+      createdAt: row.created_at,
+      schedule: decodeJson<Schedule>(row.schedule_json),
+      plan: decodeJson<Plan>(row.plan_json),
+    };
+    this.cache.set(id, record);
+    if (this.cache.size > RECORD_CACHE_SIZE) this.cache.delete(this.cache.keys().next().value!);
+    return record;
+  }
+
+  report(id: string): string | undefined {
+    return (this.statements.report.get(id) as { json: string } | undefined)?.json;
+  }
+
+  schedule(id: string): Schedule | undefined {
+    const row = this.statements.schedule.get(id) as { json: string } | undefined;
+    return row ? decodeJson<Schedule>(row.json) : undefined;
+  }
+
+  requestFindings(id: string): readonly Finding[] {
+    const row = this.statements.requestFindings.get(id) as { json: string } | undefined;
+    return row ? decodeJson<Finding[]>(row.json) : [];
+  }
+
+  claimNext(startedAt: string): ClaimedPlan | undefined {
+    return this.db.transaction(() => {
+      const next = this.statements.oldestQueued.get() as { id: string } | undefined;
+      if (!next) return undefined;
+      this.statements.start.run(startedAt, next.id);
+      return {
+        entry: this.entry(next.id)!,
+        schedule: this.schedule(next.id)!,
+        requestFindings: this.requestFindings(next.id),
+      };
+    })();
+  }
+
+  setProgress(id: string, progress: PlanProgress): void {
+    this.statements.progress.run(progress.stage, progress.fraction, id);
+  }
+
+  finish(id: string, result: PlanResult, finishedAt: string): boolean {
+    return this.db.transaction(() => {
+      const changed = this.statements.finish.run(result.status, result.error, finishedAt, id).changes;
+      if (changed === 0) return false;
+      this.statements.insertResult.run(id, result.planHash, result.planJson, result.reportJson);
+      return true;
+    })();
+  }
+
+  requeue(id: string): boolean {
+    return this.statements.requeue.run(id).changes > 0;
+  }
+
+  requeueAllRunning(): string[] {
+    return this.db.transaction(() => {
+      const ids = (this.statements.running.all() as { id: string }[]).map((r) => r.id);
+      for (const id of ids) this.statements.requeue.run(id);
+      return ids;
+    })();
+  }
+
+  delete(id: string): boolean {
+    this.cache.delete(id);
+    return this.db.transaction(() => {
+      const row = this.statements.scheduleOf.get(id) as { hash: string } | undefined;
+      if (!row) return false;
+      this.statements.deletePlan.run(id);
+      this.statements.deleteOrphanSchedule.run(row.hash, row.hash);
+      return true;
+    })();
+  }
+
+  list(query: PlanListQuery): PlanPage {
+    const where: string[] = [];
+    const params: unknown[] = [];
+    if (query.status !== undefined) {
+      where.push('p.status = ?');
+      params.push(query.status);
+    }
+    if (query.name !== undefined) {
+      where.push('p.name = ?');
+      params.push(query.name);
+    }
+    if (query.createdSince !== undefined) {
+      where.push('p.created_at >= ?');
+      params.push(query.createdSince);
+    }
+    const after = query.after === undefined ? null : readCursor(query.after);
+    if (after) {
+      where.push('(p.created_at, p.id) < (?, ?)');
+      params.push(after.createdAt, after.id);
+    }
+    const sql = `SELECT ${ENTRY_COLUMNS} FROM plans p LEFT JOIN results r ON r.plan_id = p.id
+      ${where.length ? `WHERE ${where.join(' AND ')}` : ''}
+      ORDER BY p.created_at DESC, p.id DESC LIMIT ?`;
+    const rows = this.db.prepare(sql).all(...params, query.limit + 1) as PlanRow[];
+    const items = rows.slice(0, query.limit).map(toEntry);
+    const last = items[items.length - 1];
+    return { items, next: rows.length > query.limit && last ? writeCursor(last) : null };
+  }
+
+  counts(): { queued: number; running: number } {
+    const row = this.statements.counts.get() as { queued: number | null; running: number | null };
+    return { queued: row.queued ?? 0, running: row.running ?? 0 };
+  }
+
+  ping(): void {
+    this.statements.ping.get();
+  }
+
+  close(): void {
+    if (this.db.open) this.db.close();
+  }
+}
+
+/** True when `cursor` is one `list` could have written. */
+export function isPlanCursor(cursor: string): boolean {
+  return readCursor(cursor) !== null;
+}
+
+function writeCursor(entry: PlanEntry): string {
+  return Buffer.from(`${entry.createdAt}|${entry.id}`, 'utf8').toString('base64url');
+}
+
+function readCursor(cursor: string): { createdAt: string; id: string } | null {
+  const text = Buffer.from(cursor, 'base64url').toString('utf8');
+  const bar = text.indexOf('|');
+  if (bar < 1 || bar === text.length - 1) return null;
+  return { createdAt: text.slice(0, bar), id: text.slice(bar + 1) };
+}
+
+function toEntry(row: PlanRow): PlanEntry {
+  return {
+    id: row.id,
+    createdAt: row.created_at,
+    name: row.name,
+    scheduleHash: row.schedule_hash,
+    status: row.status,
+    progress: row.status === 'running' ? { stage: row.stage ?? 'queued', fraction: row.fraction ?? 0 } : null,
+    attempts: row.attempts,
+    startedAt: row.started_at,
+    finishedAt: row.finished_at,
+    error: row.error,
+    planHash: row.plan_hash ?? null,
+  };
+}
+
+function migrate(db: Database.Database): void {
+  db.exec(
+    'CREATE TABLE IF NOT EXISTS migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)',
+  );
+  const applied = new Set(
+    (db.prepare('SELECT version FROM migrations').all() as { version: number }[]).map((r) => r.version),
+  );
+  for (const m of MIGRATIONS) {
+    if (applied.has(m.version)) continue;
+    db.transaction(() => {
+      db.exec(m.sql);
+      db.prepare('INSERT INTO migrations (version, name, applied_at) VALUES (?, ?, ?)').run(
+        m.version,
+        m.name,
+        new Date().toISOString(),
+      );
+    })();
+  }
+}
