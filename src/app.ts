@@ -1,55 +1,70 @@
 import { randomUUID } from 'node:crypto';
+import fastifyHelmet from '@fastify/helmet';
+import fastifyRateLimit from '@fastify/rate-limit';
 import fastifySwagger from '@fastify/swagger';
-import Fastify, { type FastifyBaseLogger, type FastifyError } from 'fastify';
+import fastifySwaggerUi from '@fastify/swagger-ui';
+import Fastify, { type FastifyBaseLogger, type FastifyError, type FastifyReply } from 'fastify';
 import {
   hasZodFastifySchemaValidationErrors,
   jsonSchemaTransform,
+  jsonSchemaTransformObject,
   serializerCompiler,
   validatorCompiler,
   type ZodTypeProvider,
 } from 'fastify-type-provider-zod';
 import type { Logger } from 'pino';
+import type { ApiToken } from './config.js';
+import { ApiTokens, type Principal } from './http/api-tokens.js';
+import { completeOpenapi, openapiInfo, registerComponentSchemas } from './http/build-openapi.js';
 import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './http/error-catalogue.js';
-import { openapiInfo } from './http/build-openapi.js';
-import { RateLimiter } from './http/rate-limiter.js';
+import { downloadName } from './http/motion-tables.js';
+import { matchesEtag, planEtag } from './http/plan-gate.js';
 import { checkRoutes } from './http/routes/checks.js';
 import { pageRoutes } from './http/routes/pages.js';
+import { healthRoutes } from './http/routes/health.js';
 import { planDownloadRoutes } from './http/routes/plan-downloads.js';
 import { planRoutes } from './http/routes/plans.js';
-import { MemoryPlanStore, type PlanStore } from './store/index.js';
-import { healthRoutes } from './http/routes/health.js';
 import { WIRE_LIMITS } from './http/wire-limits.js';
+import { PlanJobs, WorkerPool } from './jobs/index.js';
+import { type PlanStore, SqlitePlanStore } from './store/index.js';
 import { SERVICE_VERSION } from './version.js';
 
 export interface AppOptions {
   /** A pino logger; tests pass a silent one. */
   readonly logger: Logger;
-  /** Requests per minute from one client address; 0 or absent: no limit. */
+  /** Requests per minute from one client (its token's name, or its address without tokens); 0 or absent: no limit. */
   readonly rateLimitPerMinute?: number;
-  /** Clock for the rate limiter, ms. @default Date.now */
-  readonly now?: () => number;
-  /** Where plans are kept. @default a MemoryPlanStore */
+  /** The rate limit's window, ms (tests shorten it). @default 60000 */
+  readonly rateLimitWindowMs?: number;
+  /** Where plans are kept; the app does not close a store it is given. @default an in-memory SQLite store */
   readonly store?: PlanStore;
+  /** Plans computed at once, each in a worker thread. @default 1 */
+  readonly planWorkers?: number;
   /** How long a slow or idle client may hold a connection (tests shorten them). @default SERVER_TIMEOUTS */
   readonly timeouts?: Partial<ServerTimeouts>;
   /** Seconds after which a plan's chain search stops with what it has. @default 20 */
   readonly planTimeLimitS?: number;
+  /** Seconds after which a running plan is ended and stored as failed. @default max(60, 4 × planTimeLimitS) */
+  readonly planHardLimitS?: number;
+  /** On close, how long running plans may finish before they are queued again for the next start, ms. @default 0 */
+  readonly shutdownGraceMs?: number;
+  /** API tokens; none: every route is open (server.ts then listens on loopback only). @default [] */
+  readonly apiTokens?: readonly ApiToken[];
 }
 
 /** How long a client may take, ms; a slow client cannot hold a connection longer. */
 export interface ServerTimeouts {
   /** Whole request (headers and body) must arrive within this; Node answers 408 and closes otherwise. */
   readonly requestMs: number;
-  /** A connection with no traffic either way for this long is closed (covers the longest synchronous plan). */
+  /** A connection with no traffic either way for this long is closed. */
   readonly connectionMs: number;
   /** An idle keep-alive connection is closed after this. */
   readonly keepAliveMs: number;
 }
 
 /**
- * Timeouts of the HTTP server. 30 s brings a 5 MiB body over a slow 2 Mbit/s link; a plan of tens of plates may
- * compute for about a minute before answering, hence the 120 s idle limit; 5 s keep-alive as Node's default
- * (common practice, no source).
+ * Timeouts of the HTTP server. 30 s brings a 5 MiB body over a slow 2 Mbit/s link; 120 s idle limit; 5 s keep-alive
+ * as Node's default (common practice, no source).
  */
 export const SERVER_TIMEOUTS: ServerTimeouts = Object.freeze({
   requestMs: 30_000,
@@ -60,9 +75,20 @@ export const SERVER_TIMEOUTS: ServerTimeouts = Object.freeze({
 /** Longest path parameter, characters (a plan id is a 36-character UUID); longer ones answer 404 `not_found`. */
 const MAX_PARAM_LENGTH = 100;
 
+/** Seconds a client is told to wait before asking again for a plan that is not finished. */
+const POLL_AFTER_S = 1;
+
+declare module 'fastify' {
+  interface FastifyRequest {
+    /** Who sent the request (its API token's name and scope); null when the service has no tokens. */
+    principal: Principal | null;
+  }
+}
+
 /**
  * Builds the HTTP application without listening (server.ts listens), so tests drive it through `app.server` with
- * supertest. Every error leaves through one handler that speaks the catalogue in api-spec/errors.md.
+ * supertest. Every error leaves through one handler that speaks the catalogue in api-spec/errors.md. Plans run in
+ * worker threads (`app.plans.jobs`); the queue starts when the app is ready and drains when it closes.
  */
 export async function buildApp(options: AppOptions) {
   const timeouts = { ...SERVER_TIMEOUTS, ...options.timeouts };
@@ -113,25 +139,62 @@ export async function buildApp(options: AppOptions) {
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
   });
-  const perMinute = options.rateLimitPerMinute ?? 0;
-  if (perMinute > 0) {
-    const limiter = new RateLimiter(perMinute, 60_000, options.now ?? Date.now);
+
+  const ownStore = options.store === undefined;
+  const store = options.store ?? new SqlitePlanStore(':memory:');
+  const planWorkers = options.planWorkers ?? 1;
+  const planTimeLimitS = options.planTimeLimitS ?? 20;
+  const pool = new WorkerPool({ planThreads: planWorkers });
+  const jobs = new PlanJobs({
+    store,
+    pool,
+    concurrency: planWorkers,
+    timeLimitS: planTimeLimitS,
+    ...(options.planHardLimitS === undefined ? {} : { hardLimitS: options.planHardLimitS }),
+    log: (level, fields, message) => app.log[level](fields, message),
+  });
+  app.decorate('plans', { store, jobs, pool });
+  app.addHook('onReady', async () => {
+    jobs.start();
+  });
+  app.addHook('onClose', async () => {
+    const drained = await jobs.drain(options.shutdownGraceMs ?? 0);
+    if (drained.finished + drained.requeued > 0) app.log.info(drained, 'plan queue drained');
+    await pool.close();
+    if (ownStore) store.close();
+  });
+
+  // authentication: every /v1 route needs a token when tokens are configured; GET (and POST /v1/checks, which
+  // stores nothing) need `read`, everything else `write`
+  const tokens = new ApiTokens(options.apiTokens ?? []);
+  app.decorateRequest('principal', null);
+  if (tokens.required) {
     app.addHook('onRequest', async (request, reply) => {
-      const wait = limiter.take(request.ip);
-      if (wait > 0) {
-        reply.header('retry-after', String(wait));
+      if (!request.url.startsWith('/v1/')) return;
+      const principal = tokens.identify(request.headers.authorization);
+      if (principal === null) {
+        reply.header('www-authenticate', 'Bearer realm="die-motion-planner"');
+        const sent =
+          request.headers.authorization === undefined
+            ? 'carries no token'
+            : 'carries a token the service does not know';
+        return send(reply, request.id, 'unauthorized', `The request ${sent}: send Authorization: Bearer <token>.`);
+      }
+      request.principal = principal;
+      const reads = request.method === 'GET' || request.method === 'HEAD' || request.url.startsWith('/v1/checks');
+      if (!reads && principal.scope !== 'write') {
         return send(
           reply,
           request.id,
-          'rate_limited',
-          `More than ${perMinute} requests a minute; try again in ${wait} s.`,
+          'forbidden',
+          `The token "${principal.name}" has the read scope; ${request.method} ${shorten(request.url.split('?')[0] ?? '')} needs write.`,
         );
       }
     });
   }
 
   app.setNotFoundHandler((request, reply) => {
-    send(reply, request.id, 'not_found', `Nothing at ${request.method} ${request.url}.`);
+    send(reply, request.id, 'not_found', `Nothing at ${request.method} ${shorten(request.url)}.`);
   });
   app.setErrorHandler((error: FastifyError, request, reply) => {
     if (hasZodFastifySchemaValidationErrors(error)) {
@@ -139,6 +202,15 @@ export async function buildApp(options: AppOptions) {
         path: formatInstancePath(v.instancePath),
         message: v.message ?? 'invalid value',
       }));
+      if (error.validationContext !== undefined && error.validationContext !== 'body') {
+        return send(
+          reply,
+          request.id,
+          'malformed_request',
+          `The request's ${error.validationContext === 'querystring' ? 'query' : error.validationContext} does not match what the route accepts.`,
+          details,
+        );
+      }
       return send(reply, request.id, 'invalid_schedule', 'The schedule does not match the expected format.', details);
     }
     switch (error.code) {
@@ -162,6 +234,8 @@ export async function buildApp(options: AppOptions) {
         return send(reply, request.id, 'body_too_large', `The body is larger than ${WIRE_LIMITS.bodyBytes} bytes.`);
       case 'FST_ERR_CTP_INVALID_MEDIA_TYPE':
         return send(reply, request.id, 'unsupported_media_type', 'Send the schedule as application/json.');
+      case 'RATE_LIMITED':
+        return send(reply, request.id, 'rate_limited', error.message);
     }
     if (error instanceof SyntaxError) {
       return send(reply, request.id, 'malformed_json', `The body could not be read: ${error.message}`);
@@ -174,29 +248,102 @@ export async function buildApp(options: AppOptions) {
     return send(reply, request.id, 'internal', 'The service failed unexpectedly; nothing was stored.');
   });
 
+  const perMinute = options.rateLimitPerMinute ?? 0;
+  if (perMinute > 0) {
+    const windowMs = options.rateLimitWindowMs ?? 60_000;
+    await app.register(fastifyRateLimit, {
+      max: perMinute,
+      timeWindow: windowMs,
+      keyGenerator: (request) => (request.principal ? `token:${request.principal.name}` : `ip:${request.ip}`),
+      errorResponseBuilder: (_request, context) => {
+        const wait = Math.max(1, Math.ceil(context.ttl / 1000));
+        return Object.assign(
+          new Error(`More than ${perMinute} requests in ${windowMs / 1000} s; try again in ${wait} s.`),
+          { statusCode: 429, code: 'RATE_LIMITED' },
+        );
+      },
+    });
+  }
+  // security headers; no CORS: browsers on other origins cannot call the API. The service speaks plain HTTP (TLS,
+  // where wanted, ends at a proxy), so no HSTS and no upgrade of a page's requests to https
+  await app.register(fastifyHelmet, {
+    global: true,
+    hsts: false,
+    contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
+  });
+
+  registerComponentSchemas();
   // error and not-found handlers first: plugins registered after them inherit them
-  await app.register(fastifySwagger, { openapi: openapiInfo(SERVICE_VERSION), transform: jsonSchemaTransform });
-  await app.register(healthRoutes);
-  await app.register(checkRoutes);
-  const store = options.store ?? new MemoryPlanStore();
-  await app.register(planRoutes(store, () => new Date(options.now?.() ?? Date.now()), options.planTimeLimitS ?? 20));
+  await app.register(fastifySwagger, {
+    openapi: openapiInfo(SERVICE_VERSION),
+    transform: jsonSchemaTransform,
+    transformObject: (document) => completeOpenapi(jsonSchemaTransformObject(document)),
+  });
+  await app.register(fastifySwaggerUi, { routePrefix: '/docs', staticCSP: true, uiConfig: { deepLinking: true } });
+
+  // downloads of a plan (/v1/plans/{id}/…): unknown → 404, queued or running → 409 not_ready; finished → ETag,
+  // If-None-Match → 304, the plan's cautions named in a header, a file name when the route gives none
+  app.addHook('preHandler', async (request, reply) => {
+    const route = request.routeOptions.url ?? '';
+    if (!route.startsWith('/v1/plans/:id/') || request.method !== 'GET') return;
+    const id = (request.params as { id?: string }).id ?? '';
+    const entry = store.entry(id);
+    if (!entry) return send(reply, request.id, 'not_found', `No plan with id ${id}.`);
+    if (entry.status === 'queued' || entry.status === 'running') {
+      reply.header('retry-after', String(POLL_AFTER_S));
+      return send(
+        reply,
+        request.id,
+        'not_ready',
+        `Plan ${id} is ${entry.status}: its downloads exist once it is finished. GET /v1/plans/${id} shows its progress.`,
+      );
+    }
+    const query = request.url.includes('?') ? request.url.slice(request.url.indexOf('?')) : '';
+    const etag = planEtag(entry, `${route.slice('/v1/plans/:id/'.length)}${query}`);
+    reply.header('link', `</v1/plans/${id}>; rel="describedby"`);
+    const cautions = store.get(id)?.plan.cautions.map((c) => c.code) ?? [];
+    if (cautions.length > 0) reply.header('x-cautions', cautions.join(', '));
+    if (etag) {
+      reply.header('etag', etag);
+      reply.header('cache-control', 'private, no-cache');
+      if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send();
+    }
+    if (!reply.hasHeader('content-disposition')) {
+      const file = request.url.split('?')[0]!.split('/').slice(4).join('-');
+      reply.header('content-disposition', `attachment; filename="${downloadName(entry.name, file)}"`);
+    }
+  });
+
+  const rateLimitOff = { rateLimit: false } as const;
+  await app.register(healthRoutes({ store, jobs, pool, config: rateLimitOff }));
+  await app.register(checkRoutes(pool));
+  await app.register(planRoutes({ store, jobs, pollAfterS: POLL_AFTER_S }));
   await app.register(planDownloadRoutes(store));
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   await app.register(pageRoutes);
   return app;
 }
 
+declare module 'fastify' {
+  interface FastifyInstance {
+    /** The plan store, queue and worker pool of this app. */
+    plans: { store: PlanStore; jobs: PlanJobs; pool: WorkerPool };
+  }
+}
+
 /** The part of a reply `send` uses. */
 type ReplyLike = { code(status: number): { send(body: unknown): unknown } };
 
 function send(
-  reply: ReplyLike,
+  reply: ReplyLike | FastifyReply,
   requestId: string,
   code: ErrorCode,
   message: string,
   details: readonly ErrorDetail[] = [],
 ) {
-  return reply.code(ERROR_CATALOGUE[code].status).send({ ...errorBody(code, message, details), request_id: requestId });
+  return (reply as ReplyLike)
+    .code(ERROR_CATALOGUE[code].status)
+    .send({ ...errorBody(code, message, details), request_id: requestId });
 }
 
 /** A URL as it may appear in a message: at most 80 characters. */
