@@ -16,6 +16,16 @@ async function planId(schedule: Record<string, unknown>): Promise<string> {
 }
 
 const get = (path: string) => request(testApp().server).get(path);
+/** Every motion download of a plan. */
+const ALL_DOWNLOADS = [
+  'setpoints.csv',
+  'setpoints.json',
+  'cam-table.csv',
+  'cam-table.json',
+  'puller-speed.csv',
+  'puller-speed.json',
+  'motion.json',
+];
 /** CSV text read back by an independent parser (csv-parse), numbers as numbers. */
 const readCsv = (text: string): { header: string[]; rows: number[][] } => {
   const records = parse(text) as string[][];
@@ -28,12 +38,14 @@ describe('setpoint and cam-table downloads of the demo plan', () => {
     id = await planId(fixture('demo-edging-strip'));
   });
 
-  it('GET setpoints.csv is text/csv with the plan name as file name, header position_m,time_s,actuator_1_deg', async () => {
+  it('GET setpoints.csv is text/csv with the plan name as file name, header position_m,time_s,actuator_1_deg, then the puller speed, orifice area and draw-down', async () => {
     const res = await get(`/v1/plans/${id}/setpoints.csv`);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
     expect(res.headers['content-disposition']).toBe('attachment; filename="edging-strip-demo-setpoints.csv"');
-    expect(res.text.split('\n')[0]).toBe('position_m,time_s,actuator_1_deg');
+    expect(res.text.split('\n')[0]).toBe(
+      'position_m,time_s,actuator_1_deg,puller_speed_m_per_min,orifice_area_mm2,draw_down_ratio',
+    );
   });
 
   it('setpoints.csv read back with csv-parse equals the rows of setpoints.json, which carries units, law and cautions', async () => {
@@ -41,7 +53,16 @@ describe('setpoint and cam-table downloads of the demo plan', () => {
     const json = (await get(`/v1/plans/${id}/setpoints.json`)).body;
     expect(json.columns).toEqual(csv.header);
     expect(json.rows).toEqual(csv.rows);
-    expect(json.units).toEqual({ position_m: 'm', time_s: 's', actuator_1_deg: 'deg' });
+    expect(json.units).toEqual({
+      position_m: 'm',
+      time_s: 's',
+      actuator_1_deg: 'deg',
+      puller_speed_m_per_min: 'm/min',
+      orifice_area_mm2: 'mm²',
+      draw_down_ratio: 'ratio',
+    });
+    expect(json.puller_follows_area).toBe(false);
+    expect(json.plan_hash === null || /^[0-9a-f]{64}$/.test(json.plan_hash)).toBe(true);
     expect(json.law).toBe('cycloidal');
     expect(json.periodic).toBe(true);
     expect(json.schedule).toBe('edging-strip-demo');
@@ -123,7 +144,7 @@ describe('setpoint and cam-table downloads of the demo plan', () => {
 
 describe('downloads that cannot be given', () => {
   it('an unknown id is 404 not_found from the catalogue, for every download', async () => {
-    for (const file of ['setpoints.csv', 'setpoints.json', 'cam-table.csv', 'cam-table.json']) {
+    for (const file of ALL_DOWNLOADS) {
       const res = await get(`/v1/plans/00000000-0000-0000-0000-000000000000/${file}`);
       expect(res.status).toBe(404);
       expect(res.body.error).toBe('not_found');
@@ -135,7 +156,7 @@ describe('downloads that cannot be given', () => {
     const plan = (await get(`/v1/plans/${id}`)).body;
     expect(plan.status).toBe('failed');
     expect(plan.motion).toBeNull();
-    for (const file of ['setpoints.csv', 'setpoints.json', 'cam-table.csv', 'cam-table.json']) {
+    for (const file of ALL_DOWNLOADS) {
       const res = await get(`/v1/plans/${id}/${file}`);
       expect(res.status).toBe(409);
       expect(res.body.error).toBe('no_motion');
