@@ -23,6 +23,7 @@ import { checkRoutes } from './http/routes/checks.js';
 import { pageRoutes } from './http/routes/pages.js';
 import { healthRoutes } from './http/routes/health.js';
 import { planDownloadRoutes } from './http/routes/plan-downloads.js';
+import { planDrawingRoutes } from './http/routes/plan-drawings.js';
 import { planRoutes } from './http/routes/plans.js';
 import { WIRE_LIMITS } from './http/wire-limits.js';
 import { PlanJobs, WorkerPool } from './jobs/index.js';
@@ -319,6 +320,7 @@ export async function buildApp(options: AppOptions) {
   await app.register(checkRoutes(pool));
   await app.register(planRoutes({ store, jobs, pollAfterS: POLL_AFTER_S }));
   await app.register(planDownloadRoutes(store));
+  await app.register(planDrawingRoutes(store));
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   await app.register(pageRoutes);
   return app;

@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs';
-import DxfParserModule, { type IDxf, type IEntity } from 'dxf-parser';
+import DxfParserModule, { type DxfParser as DxfParserClass, type IDxf, type IEntity } from 'dxf-parser';
 import { drawingModel } from '../../src/export/index.js';
 import { toSchedule } from '../../src/http/to-schedule.js';
 import { type Plan, planSchedule } from '../../src/pipeline/index.js';
@@ -16,8 +16,9 @@ export function planDemo() {
 }
 
 // dxf-parser ships CommonJS with a default export: under NodeNext the default import is the module object
-const DxfParser = ((DxfParserModule as unknown as { default?: typeof DxfParserModule }).default ??
-  DxfParserModule) as typeof DxfParserModule;
+type ParserConstructor = new () => DxfParserClass;
+const parserModule = DxfParserModule as unknown as ParserConstructor & { default?: ParserConstructor };
+const DxfParser: ParserConstructor = parserModule.default ?? parserModule;
 
 /** A DXF text read back by dxf-parser 1.1.2, an independent reader. */
 export function readDxf(text: string): IDxf {

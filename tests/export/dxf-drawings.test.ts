@@ -231,7 +231,8 @@ describe('die-body.dxf', () => {
   it('the swept area holds every part at every station (each part minus the area under 1e-3 mm², polygon-clipping)', () => {
     const swept = entitiesOn<ILwpolylineEntity>(dxf, 'LWPOLYLINE', DIE_BODY_LAYERS.swept).map(ringOf);
     expect(swept.length).toBeGreaterThan(0);
-    const envelope = pc.union(...swept.map((r) => [r] as pc.Polygon));
+    const [first, ...rest] = swept.map((r) => [r] as pc.Polygon);
+    const envelope = pc.union(first!, ...rest);
     const stations = readDxf(writeStationsDxf(model, hot));
     for (let i = 0; i < model.stations.length; i++) {
       const parts = entitiesOn<ILwpolylineEntity>(stations, 'LWPOLYLINE', stationLayers(i).parts).map(ringOf);
