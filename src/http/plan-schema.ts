@@ -166,6 +166,46 @@ export const ChainTriedWire = z.object({
   verdict: z.string().describe('chosen, or why this chain was not the answer'),
 });
 
+const RangeWire = (unit: string) =>
+  z
+    .object({ min: z.number().nullable(), max: z.number().nullable() })
+    .describe(`smallest and largest over the steps, ${unit} (null when not finite)`);
+
+export const SimulationWire = z.object({
+  steps: z
+    .number()
+    .int()
+    .describe('steps simulated: one per time step over one repeat (or first to last station) and every station'),
+  time_step_s: z
+    .number()
+    .describe('time between steps at the nominal line speed, s (time_step_s, or coarser when capped)'),
+  capped: z
+    .boolean()
+    .describe('true: time_step_s would have given more than 2000 steps, so a coarser step was simulated'),
+  wall_stride: z
+    .number()
+    .int()
+    .describe('walls, transmission angles and room were measured every this many steps and at every station'),
+  puller_follows_area: z.boolean().describe('process.puller_follows_area'),
+  target_draw_down_ratio: z.number().describe('the draw-down the puller holds when it follows the area'),
+  duration_s: z.number().describe('time of one repeat (or first to last station) at the simulated puller speed, s'),
+  area_mm2: RangeWire('mm²'),
+  draw_down_ratio: RangeWire('orifice over product'),
+  puller_speed_m_per_min: RangeWire('m/min'),
+  die_pressure_ratio: RangeWire('die-land pressure over the first station’s'),
+  min_wall_mm: z.number().nullable().describe('thinnest wall measured along the motion, mm'),
+  max_leak_area_mm2: z
+    .number()
+    .describe('largest uncovered opening apart from the orifice, mm² (0: sealed throughout)'),
+  max_tip_speed_mm_per_s: z.number().describe('fastest plate tip (pivot) speed, mm/s'),
+  transmission_angle_deg: RangeWire('degrees, binary links and dyad joints'),
+  min_clearance_mm: z.number().nullable().describe('tightest room between parts along the motion, mm'),
+  unsolved_steps: z
+    .number()
+    .int()
+    .describe('steps where the mechanism could not be assembled (0 when it moves throughout)'),
+});
+
 export const PlanWire = z.object({
   id: z.string(),
   name: z.string(),
@@ -189,7 +229,9 @@ export const PlanWire = z.object({
     .object({
       law: z
         .enum(['cycloidal', 'polynomial-345', 'monotone-cubic'])
-        .describe('motion law between stations; cycloidal: rest-to-rest over each transition (VDI 2143 Blatt 1)'),
+        .describe(
+          'motion law between stations (the schedule’s motion_law): cycloidal and polynomial-345 rest at every station (VDI 2143 Blatt 1); monotone-cubic runs through the station values without overshoot (Fritsch & Carlson 1980)',
+        ),
       rest_to_rest: z.boolean().describe('true: every actuator comes to rest at every station'),
       time_step_s: z.number().describe('time between rows of the setpoint table, s'),
       periodic: z
@@ -200,6 +242,9 @@ export const PlanWire = z.object({
     .describe(
       'how the actuators move between stations (downloads: setpoints.csv/.json, cam-table.csv/.json); null when the plan failed or has no actuators',
     ),
+  simulation: SimulationWire.nullable().describe(
+    'the commanded motion simulated step by step (downloads: puller-speed.csv/.json, motion.json; findings MOTION_…); null when the plan has no driven mechanism',
+  ),
 });
 
 export type PlanReport = z.infer<typeof PlanWire>;

@@ -34,6 +34,7 @@ export function readablePlan(record: PlanRecord): ReadablePlan {
       mechanisation: null,
       mechanism: null,
       motion: null,
+      simulation: null,
       chainsTried: [],
     },
   };

@@ -1,4 +1,5 @@
 import type { Region } from '../geometry/index.js';
+import type { PlanSimulation } from '../pipeline/index.js';
 import type { PlanRecord } from '../store/index.js';
 import type { PlanReport } from './plan-schema.js';
 import { toCautionWire, toFindingWire } from './to-check-report.js';
@@ -164,5 +165,39 @@ export function toPlanReport(record: PlanRecord): PlanReport {
           periodic: plan.motion.trajectories[0]!.timeBase.periodic,
         }
       : null,
+    simulation: plan.simulation ? simulationSummary(plan.simulation) : null,
+  };
+}
+
+/** Smallest and largest finite value of a series (null where none is finite), rounded. */
+function range(values: readonly (number | null)[], round: (x: number) => number = sig) {
+  const finite = values.filter((v): v is number => v !== null && Number.isFinite(v));
+  return finite.length === 0
+    ? { min: null, max: null }
+    : { min: round(Math.min(...finite)), max: round(Math.max(...finite)) };
+}
+
+/** The plan's simulation in a few figures (the series are in the downloads). */
+function simulationSummary(s: PlanSimulation) {
+  const walls = range(s.minWallMm, mm);
+  const room = range(s.clearanceMm, mm);
+  return {
+    steps: s.positionsM.length,
+    time_step_s: sig(s.timeStepS),
+    capped: s.capped,
+    wall_stride: s.wallStride,
+    puller_follows_area: s.pullerFollowsArea,
+    target_draw_down_ratio: sig(s.targetDrawDown),
+    duration_s: sig(s.timesS[s.timesS.length - 1]!),
+    area_mm2: range(s.areaMm2, mm),
+    draw_down_ratio: range(s.drawDownRatio),
+    puller_speed_m_per_min: range(s.pullerSpeedMPerS.map((v) => v * 60)),
+    die_pressure_ratio: range(s.diePressureRatio),
+    min_wall_mm: walls.min,
+    max_leak_area_mm2: mm(Math.max(0, ...s.leakAreaMm2)),
+    max_tip_speed_mm_per_s: sig(Math.max(0, ...s.tipSpeedMmPerS)),
+    transmission_angle_deg: range(s.transmissionDeg),
+    min_clearance_mm: room.min,
+    unsolved_steps: s.solved.filter((ok) => !ok).length,
   };
 }

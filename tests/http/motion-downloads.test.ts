@@ -171,6 +171,22 @@ describe('motion.json for the review page', () => {
     });
   });
 
+  it('the plan summarises its simulation: 901 steps, every one solved and sealed, walls measured', async () => {
+    const plan = (await get(`/v1/plans/${id}`)).body;
+    expect(plan.simulation).toMatchObject({
+      steps: 901,
+      time_step_s: 0.05,
+      capped: false,
+      puller_follows_area: false,
+      duration_s: 45,
+      unsolved_steps: 0,
+      max_leak_area_mm2: 0,
+    });
+    // the demo's thinnest wall is above its 1.5 mm minimum at every station (docs/MODEL.md §6) and between them
+    expect(plan.simulation.min_wall_mm).toBeGreaterThan(1.5);
+    expect(plan.simulation.area_mm2.max).toBeGreaterThan(plan.simulation.area_mm2.min);
+  });
+
   it('carries the plan’s findings with their position ranges, and the cautions', () => {
     const motion = view.findings.filter((f) => f.code.startsWith('MOTION_') && f.to_position_m !== undefined);
     expect(motion.length).toBeGreaterThan(0);
