@@ -440,7 +440,11 @@ function findingsSection(plan, model) {
       findings.map(({ f, i }) => {
         const x = findingPosition(f, model.stationPositions);
         const where =
-          x === null ? 'whole plan' : `at ${fixed(x, 3)} m${f.station !== undefined ? ` (station ${f.station})` : ''}`;
+          x === null
+            ? 'whole plan'
+            : f.to_position_m !== undefined && f.to_position_m > x
+              ? `from ${fixed(x, 3)} to ${fixed(f.to_position_m, 3)} m`
+              : `at ${fixed(x, 3)} m${f.station !== undefined ? ` (station ${f.station})` : ''}`;
         const figures = [
           f.value !== undefined ? `value ${brief(f.value)}` : null,
           f.limit !== undefined ? `limit ${brief(f.limit)}` : null,

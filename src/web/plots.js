@@ -38,7 +38,7 @@ export function createCharts(container, charts, hooks) {
                 'li',
                 { 'data-finding': String(m.finding) },
                 h('span', { class: `badge severity-${m.severity}` }, m.severity),
-                ` ${m.code} at ${fixed(m.x, 3)} m: `,
+                ` ${m.code} ${m.to === undefined ? `at ${fixed(m.x, 3)} m` : `from ${fixed(m.x, 3)} to ${fixed(m.to, 3)} m (shaded)`}: `,
                 h('button', { type: 'button', class: 'link-button', onclick: () => hooks.onPick(m.x) }, 'show'),
                 ' ',
                 h('span', { class: 'visually-hidden' }, hooks.describeFinding(m.finding)),
@@ -68,7 +68,7 @@ export function createCharts(container, charts, hooks) {
         },
         axes: [
           { label: 'line position (m)', stroke: '#333', grid: { stroke: '#e3e3e3' } },
-          { label: chart.unit, stroke: '#333', grid: { stroke: '#e3e3e3' }, size: 60 },
+          { label: chart.unit === '–' ? 'ratio' : chart.unit, stroke: '#333', grid: { stroke: '#e3e3e3' }, size: 60 },
         ],
         series: [
           { label: 'line position (m)', value: (_u, v) => (v == null ? '–' : `${fixed(v, 3)} m`) },
@@ -160,11 +160,17 @@ function drawOverlay(u, chart, position) {
   ctx.lineTo(x, bbox.top + bbox.height);
   ctx.stroke();
   for (const m of chart.markers) {
+    if (m.to !== undefined) {
+      const x0 = u.valToPos(m.x, 'x', true);
+      const x1 = u.valToPos(m.to, 'x', true);
+      ctx.fillStyle = `${SEVERITY_COLOURS[m.severity] ?? '#333333'}26`;
+      ctx.fillRect(x0, bbox.top, Math.max(1, x1 - x0), bbox.height);
+    }
     if (!Number.isFinite(m.y)) continue;
     const mx = u.valToPos(m.x, 'x', true);
     const my = u.valToPos(m.y, 'y', true);
     const r = 7 * px;
-    ctx.fillStyle = SEVERITY_COLOURS[m.severity] ?? '#333';
+    ctx.fillStyle = SEVERITY_COLOURS[m.severity] ?? '#333333';
     ctx.strokeStyle = '#ffffff';
     ctx.lineWidth = 1.5 * px;
     ctx.beginPath();

@@ -97,3 +97,22 @@ describe('finding → marker', () => {
     expect(charts.every((c) => c.markers.length === 0)).toBe(true);
   });
 });
+
+describe('findings over a range of line positions', () => {
+  it('a motion draw-down finding is marked on the draw-down chart from where its range starts, on the curve, with its range and limit', () => {
+    const motionHigh: Finding = {
+      code: 'MOTION_DRAW_DOWN_HIGH',
+      severity: 'warning',
+      position_m: 0.25,
+      to_position_m: 0.75,
+      value: 1.32,
+      limit: 1.3,
+      message: 'draw-down above the limit over a range',
+    };
+    const chart = buildCharts(model(), [motionHigh]).find((c) => c.key === 'draw_down_ratio')!;
+    expect(chart.markers).toHaveLength(1);
+    expect(chart.markers[0]).toMatchObject({ x: 0.25, to: 0.75, code: 'MOTION_DRAW_DOWN_HIGH' });
+    expect(chart.markers[0]!.y).toBeCloseTo(1.21, 12); // halfway from 1.1 (0 m) to 1.32 (0.5 m)
+    expect(chart.limits).toEqual([{ label: 'highest draw-down', value: 1.3, side: 'max' }]);
+  });
+});

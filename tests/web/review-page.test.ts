@@ -13,6 +13,34 @@ const CHROMIUM = '/usr/bin/chromium';
 const hasChromium = existsSync(CHROMIUM);
 const OUT = new URL('../../.ci/out/', import.meta.url);
 const FINISHED = new Set(['done', 'incomplete', 'failed']);
+/** The smallest plan request (README): a 40 mm strip whose top rises from 8 to 12 mm; it plans in well under a second. */
+const SMALL_SCHEDULE = {
+  name: 'small-strip',
+  stations: [
+    {
+      position_m: 0,
+      orifice: {
+        outer: [
+          [0, 0],
+          [40, 0],
+          [40, 8],
+          [0, 8],
+        ],
+      },
+    },
+    {
+      position_m: 0.5,
+      orifice: {
+        outer: [
+          [0, 0],
+          [40, 0],
+          [40, 12],
+          [0, 12],
+        ],
+      },
+    },
+  ],
+};
 /** How far a drawn pin may lie from the plan's position, mm (the drawing keeps 0.1 µm). */
 const TOLERANCE_MM = 1e-3;
 
@@ -207,7 +235,7 @@ describe.skipIf(!hasChromium)(
       }
       mkdirSync(OUT, { recursive: true });
       await page.locator('#position').fill('0.5');
-      await page.evaluate(() => window.scrollTo(0, 0));
+      await page.mouse.wheel(0, -100_000);
       await page.screenshot({ path: new URL('review-page.png', OUT).pathname, fullPage: true });
     });
 
@@ -256,13 +284,41 @@ describe.skipIf(!hasChromium)(
     it('a schedule posted from the list page is followed until it is finished, then its plan page opens', async () => {
       const list = await browser.newPage({ viewport: { width: 900, height: 1000 } });
       await list.goto(`${base}/`);
-      await list
-        .locator('#schedule-text')
-        .fill(readFileSync(new URL('../../fixtures/demo-edging-strip.json', import.meta.url), 'utf8'));
+      await list.locator('#schedule-text').fill(JSON.stringify(SMALL_SCHEDULE));
       await list.locator('#post-form button[type="submit"]').click();
       await list.waitForURL(/\/plans\/[0-9a-f-]{36}$/, { timeout: 30_000 });
-      await list.locator('#position').waitFor({ timeout: 20_000 });
+      await list.locator('#plan-title .badge').waitFor({ timeout: 20_000 });
+      await expect(list.locator('#plan-title').textContent()).resolves.toContain(SMALL_SCHEDULE.name);
       await list.close();
+    }, 40_000);
+
+    it('with tokens configured the page asks for one, keeps it for the tab and sends it as a Bearer header', async () => {
+      const token = 'review-page-test-token-0123';
+      const guarded = await buildApp({
+        logger: pino({ level: 'silent' }),
+        apiTokens: [{ name: 'reviewer', scope: 'write', token }],
+      });
+      try {
+        await guarded.listen({ host: '127.0.0.1', port: 0 });
+        const at = `http://127.0.0.1:${(guarded.server.address() as AddressInfo).port}`;
+        const tab = await browser.newPage({ viewport: { width: 1024, height: 900 } });
+        await tab.goto(`${at}/`);
+        await tab.locator('#token-form').waitFor({ state: 'visible', timeout: 10_000 });
+        await expect(tab.locator('#list-status').textContent()).resolves.toContain('401');
+        await tab.locator('#token-input').fill(token);
+        await tab.locator('#token-form button[type="submit"]').click();
+        await expect
+          .poll(() => tab.locator('#list-status').textContent(), { timeout: 10_000 })
+          .toMatch(/No plans yet|shown/);
+        await tab.locator('#schedule-text').fill(JSON.stringify(SMALL_SCHEDULE));
+        await tab.locator('#post-form button[type="submit"]').click();
+        await tab.waitForURL(/\/plans\/[0-9a-f-]{36}$/, { timeout: 30_000 });
+        await tab.locator('#plan-title .badge').waitFor({ timeout: 20_000 });
+        await expect(tab.locator('#plan-title').textContent()).resolves.toContain(SMALL_SCHEDULE.name);
+        await tab.close();
+      } finally {
+        await guarded.close();
+      }
     }, 40_000);
   },
 );

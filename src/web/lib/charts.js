@@ -14,13 +14,17 @@ import { valueAt } from './motion-model.js';
  * @property {'info' | 'warning' | 'error'} severity
  * @property {number} [station]
  * @property {number} [position_m]
+ * @property {number} [to_position_m]  end of the line-position range it holds over, when it holds over one
  * @property {number} [value]
  * @property {number} [limit]
  * @property {string} message
  */
 
 /** @typedef {{ label: string, value: number, side: 'min' | 'max' }} Limit */
-/** @typedef {{ x: number, y: number, severity: Finding['severity'], code: string, finding: number }} Marker */
+/**
+ * @typedef {{ x: number, y: number, severity: Finding['severity'], code: string, finding: number, to?: number }} Marker
+ *   `to`: end of the range the finding holds over (drawn as a band from `x`)
+ */
 
 /**
  * @typedef {object} ChartSpec
@@ -28,7 +32,7 @@ import { valueAt } from './motion-model.js';
  * @property {string} title
  * @property {string} unit  as printed on the axis
  * @property {number[]} x  line positions, m
- * @property {{ label: string, values: number[] }[]} lines
+ * @property {{ label: string, values: (number | null)[] }[]} lines
  * @property {Limit[]} limits
  * @property {Marker[]} markers
  * @property {boolean} atStations  values known at the stations only (drawn as points joined by straight lines)
@@ -49,7 +53,11 @@ const PROCESS_CHARTS = [
 export const CHART_OF_CODE = Object.freeze({
   DRAW_DOWN_HIGH: 'draw_down_ratio',
   DRAW_DOWN_LOW: 'draw_down_ratio',
+  MOTION_DRAW_DOWN_HIGH: 'draw_down_ratio',
+  MOTION_DRAW_DOWN_LOW: 'draw_down_ratio',
   PRESSURE_SWING: 'die_pressure_ratio',
+  MOTION_PRESSURE_RISE: 'die_pressure_ratio',
+  MOTION_TRANSMISSION_ANGLE: 'actuators',
   HIGH_LAND_PRESSURE: 'die_pressure_ratio',
   LAND_PRESSURE_OUT_OF_RANGE: 'die_pressure_ratio',
   ACTUATOR_LIMIT: 'actuators',
@@ -59,14 +67,24 @@ export const CHART_OF_CODE = Object.freeze({
   MECHANISM_DEFECT: 'actuators',
 });
 
-/** Findings whose `value` is in the unit of their chart (so the marker sits at the value itself). */
+/**
+ * Findings at one station whose `value` is in the unit of their chart (the marker sits at the value itself); a finding
+ * over a range gives its worst value, not the one where the range starts, so it sits on the curve.
+ */
 const VALUE_ON_CHART = new Set(['DRAW_DOWN_HIGH', 'DRAW_DOWN_LOW']);
 
 /** Limits a finding states, by code: the chart and the side of the limit. */
 const LIMIT_OF_CODE = Object.freeze({
   DRAW_DOWN_HIGH: { chart: 'draw_down_ratio', side: /** @type {const} */ ('max'), label: 'highest draw-down' },
   DRAW_DOWN_LOW: { chart: 'draw_down_ratio', side: /** @type {const} */ ('min'), label: 'lowest draw-down' },
+  MOTION_DRAW_DOWN_HIGH: { chart: 'draw_down_ratio', side: /** @type {const} */ ('max'), label: 'highest draw-down' },
+  MOTION_DRAW_DOWN_LOW: { chart: 'draw_down_ratio', side: /** @type {const} */ ('min'), label: 'lowest draw-down' },
   PRESSURE_SWING: { chart: 'die_pressure_ratio', side: /** @type {const} */ ('max'), label: 'pressure swing limit' },
+  MOTION_PRESSURE_RISE: {
+    chart: 'die_pressure_ratio',
+    side: /** @type {const} */ ('max'),
+    label: 'pressure rise limit',
+  },
 });
 
 /**
@@ -187,5 +205,9 @@ export function findingMarker(finding, index, charts, stationPositions) {
   const first = chart.lines[0];
   const onLine = first ? valueAt({ positions: chart.x, values: first.values }, x) : Number.NaN;
   const y = VALUE_ON_CHART.has(finding.code) && finding.value !== undefined ? finding.value : onLine;
-  return { chart: chart.key, marker: { x, y, severity: finding.severity, code: finding.code, finding: index } };
+  /** @type {Marker} */
+  const marker = { x, y, severity: finding.severity, code: finding.code, finding: index };
+  const to = finding.to_position_m;
+  if (to !== undefined && Number.isFinite(to) && to > x) marker.to = to;
+  return { chart: chart.key, marker };
 }

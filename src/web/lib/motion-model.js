@@ -11,7 +11,7 @@ import { barOutline, lerpPoint, placeOutline, regionArea } from './geometry.js';
 /**
  * @typedef {object} Curve  values against line position
  * @property {number[]} positions  line positions, m, increasing
- * @property {number[]} values
+ * @property {(number | null)[]} values  null where a value does not exist (a gap)
  */
 
 /**
@@ -69,9 +69,19 @@ export function locate(positions, x) {
  */
 export function valueAt(curve, x) {
   const { index, t } = locate(curve.positions, x);
-  const a = curve.values[index] ?? Number.NaN;
-  const b = curve.values[index + 1] ?? a;
+  const a = finite(curve.values[index]);
+  const b = index + 1 < curve.values.length ? finite(curve.values[index + 1]) : a;
+  if (t === 0) return a;
+  if (t === 1) return b;
   return a + (b - a) * t;
+}
+
+/**
+ * A sample as a number: a missing one (null on the wire, e.g. the pressure ratio of a closed orifice) is NaN.
+ * @param {number | null | undefined} v
+ */
+function finite(v) {
+  return typeof v === 'number' ? v : Number.NaN;
 }
 
 /**
