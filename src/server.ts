@@ -1,6 +1,6 @@
-import { pino } from 'pino';
 import { buildApp } from './app.js';
 import { loadConfig } from './config.js';
+import { createLogger } from './logger.js';
 import { SqlitePlanStore } from './store/index.js';
 
 let config: ReturnType<typeof loadConfig>;
@@ -10,15 +10,7 @@ try {
   console.error(`die-motion-planner: ${err instanceof Error ? err.message : String(err)}`);
   process.exit(2);
 }
-const logger = pino({
-  level: config.logLevel,
-  formatters: { level: (label) => ({ level: label }) },
-  // tokens never reach the log, whatever carries them
-  redact: {
-    paths: ['req.headers.authorization', 'headers.authorization', 'authorization', '*.token'],
-    censor: '[redacted]',
-  },
-});
+const logger = createLogger(config.logLevel);
 const store = new SqlitePlanStore(config.databasePath);
 const app = await buildApp({
   logger,

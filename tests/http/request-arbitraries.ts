@@ -567,8 +567,17 @@ export async function answer(server: Pick<App, 'inject'>, c: RequestCase): Promi
   });
   const body = parse(res.body);
   if (res.statusCode !== 202) return { status: res.statusCode, body };
-  const back = await server.inject({ method: 'GET', url: res.headers.location as string });
-  return { status: res.statusCode, body, readBack: { status: back.statusCode, body: parse(back.body) } };
+  // plans are computed in the background: read the Location until the plan has finished (at most 60 s)
+  const started = Date.now();
+  for (;;) {
+    const back = await server.inject({ method: 'GET', url: res.headers.location as string });
+    const status = (parse(back.body) as { status?: string } | null)?.status;
+    const waiting = back.statusCode === 200 && (status === 'queued' || status === 'running');
+    if (!waiting || Date.now() - started > 60_000) {
+      return { status: res.statusCode, body, readBack: { status: back.statusCode, body: parse(back.body) } };
+    }
+    await new Promise((resolve) => setTimeout(resolve, 10));
+  }
 }
 
 function parse(text: string): unknown {

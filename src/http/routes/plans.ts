@@ -236,6 +236,7 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
         mechanisation: null,
         mechanism: null,
         motion: null,
+        simulation: null,
         schedule_hash: entry.scheduleHash,
         plan_hash: null,
         started_at: entry.startedAt,
