@@ -1,7 +1,7 @@
 import { h, s } from './dom.js';
 import { describePose, fixed } from './lib/describe.js';
 import { boundsOf } from './lib/geometry.js';
-import { poseAt } from './lib/motion-model.js';
+import { nearestStation, poseAt } from './lib/motion-model.js';
 
 /** @typedef {import('./lib/motion-model.js').MotionModel} MotionModel */
 /** @typedef {import('./lib/motion-model.js').Pose} Pose */
@@ -185,28 +185,6 @@ export function createDrawing(model, plan) {
   const first = model.positions[0];
   if (first !== undefined) update(poseAt(model, first));
   return { element, update };
-}
-
-/**
- * The station whose pose the mechanism is nearest to at `x`: the nearest station by line position, where one repeat
- * on from the first station counts as the first station again.
- * @param {MotionModel} model
- * @param {number} x
- */
-export function nearestStation(model, x) {
-  let best = 0;
-  let bestD = Number.POSITIVE_INFINITY;
-  model.stationPositions.forEach((p, i) => {
-    const d = Math.abs(p - x);
-    if (d < bestD) {
-      bestD = d;
-      best = i;
-    }
-  });
-  const last = model.positions[model.positions.length - 1];
-  const lastStation = model.stationPositions[model.stationPositions.length - 1] ?? 0;
-  if (last !== undefined && last > lastStation && Math.abs(last - x) < bestD) best = 0;
-  return best;
 }
 
 /**

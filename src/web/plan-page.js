@@ -9,11 +9,11 @@ import {
   setUpTokenField,
 } from './api.js';
 import { fill, h, localTime, s } from './dom.js';
-import { createDrawing, nearestStation, regionPath } from './drawing.js';
+import { createDrawing, regionPath } from './drawing.js';
 import { buildCharts, findingPosition } from './lib/charts.js';
 import { brief, fixed } from './lib/describe.js';
 import { boundsOf, regionArea } from './lib/geometry.js';
-import { modelFromMotion, modelFromStations, poseAt, valueAt } from './lib/motion-model.js';
+import { modelFromMotion, modelFromStations, nearestStation, poseAt, valueAt } from './lib/motion-model.js';
 import { createCharts } from './plots.js';
 
 /** The plan page: `/plans/{id}`. Waits for an unfinished plan, then shows it. */
@@ -609,6 +609,36 @@ function figuresSection(plan) {
         `Transmission angle at ${j.joint}`,
         `${fixed(j.min, 1)}° to ${fixed(j.max, 1)}° (worst ${fixed(j.worst, 1)}°)`,
       ]);
+  }
+  const sim = plan.simulation;
+  if (sim) {
+    const range = (
+      /** @type {{ min: number | null, max: number | null }} */ r,
+      /** @type {number} */ d,
+      /** @type {string} */ unit,
+    ) => (r.min === null || r.max === null ? '–' : `${fixed(r.min, d)} to ${fixed(r.max, d)}${unit}`);
+    rows.push(
+      [
+        'Motion simulated',
+        `${sim.steps} steps, ${sim.time_step_s} s apart${sim.capped ? ' (step coarsened)' : ''}; one pass takes ${fixed(sim.duration_s, 1)} s`,
+      ],
+      ['Orifice area along the motion', range(sim.area_mm2, 1, ' mm²')],
+      ['Draw-down along the motion', range(sim.draw_down_ratio, 3, '')],
+      [
+        'Puller speed',
+        `${range(sim.puller_speed_m_per_min, 3, ' m/min')}${sim.puller_follows_area ? `, holding draw-down ${fixed(sim.target_draw_down_ratio, 3)}` : ''}`,
+      ],
+      ['Die pressure over the first station’s', range(sim.die_pressure_ratio, 3, '')],
+      ['Thinnest wall along the motion', sim.min_wall_mm === null ? '–' : `${fixed(sim.min_wall_mm, 2)} mm`],
+      [
+        'Largest leak past the plates',
+        sim.max_leak_area_mm2 > 0 ? `${fixed(sim.max_leak_area_mm2, 2)} mm²` : 'none: sealed throughout',
+      ],
+      ['Fastest plate pivot', `${fixed(sim.max_tip_speed_mm_per_s, 2)} mm/s`],
+      ['Transmission angle along the motion', range(sim.transmission_angle_deg, 1, '°')],
+      ['Tightest room along the motion', sim.min_clearance_mm === null ? '–' : `${fixed(sim.min_clearance_mm, 2)} mm`],
+      ['Steps not assembled', String(sim.unsolved_steps)],
+    );
   }
   const clearances = mech?.clearances ?? [];
   return h(

@@ -5,6 +5,7 @@ import {
   type MotionJson,
   modelFromMotion,
   modelFromStations,
+  nearestStation,
   type PlanLike,
   poseAt,
   valueAt,
@@ -218,5 +219,19 @@ describe('line position → pose', () => {
     expect(text).toContain('At 1.000 m of line.');
     expect(text).toContain('actuator_1 at 90.0 °.');
     expect(text).toContain('plate_1 from (0.0, 0.0) to (0.0, 10.0) mm, at 90.0°.');
+  });
+});
+
+describe('nearest station', () => {
+  it('nearestStation picks the station nearest by line position, and the first again one repeat on', () => {
+    const model = modelFromMotion(crankMotion(4), {
+      ...crankPlan,
+      stations: [0, 0.25, 0.5].map((p) => ({ position_m: p, achieved_orifice: { outer: [] }, plates: [] })),
+    });
+    expect(nearestStation(model, 0.1)).toBe(0);
+    expect(nearestStation(model, 0.2)).toBe(1);
+    expect(nearestStation(model, 0.6)).toBe(2);
+    // the motion runs to 1 m, past the last station at 0.5 m: near its end the mechanism is back at station 0
+    expect(nearestStation(model, 0.9)).toBe(0);
   });
 });

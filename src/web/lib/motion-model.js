@@ -389,3 +389,25 @@ function pivotJointsOf(plan, plateId, joints) {
   const b = nearest(pivots[1]);
   return a && b && a !== b ? [a, b] : null;
 }
+
+/**
+ * The station whose pose the mechanism is nearest to at `x`: the nearest station by line position, where one repeat
+ * on from the first station counts as the first station again.
+ * @param {MotionModel} model
+ * @param {number} x
+ */
+export function nearestStation(model, x) {
+  let best = 0;
+  let bestD = Number.POSITIVE_INFINITY;
+  model.stationPositions.forEach((p, i) => {
+    const d = Math.abs(p - x);
+    if (d < bestD) {
+      bestD = d;
+      best = i;
+    }
+  });
+  const last = model.positions[model.positions.length - 1];
+  const lastStation = model.stationPositions[model.stationPositions.length - 1] ?? 0;
+  if (last !== undefined && last > lastStation && Math.abs(last - x) < bestD) best = 0;
+  return best;
+}
