@@ -269,9 +269,10 @@ export function drawingModel(
     };
   });
 
-  const steps = intermediateConfigurations(plan, schedule, stationJoints);
+  const steps =
+    simulatedConfigurations(plan, stationJoints.length) ?? intermediateConfigurations(plan, schedule, stationJoints);
   const configurations = [...stationJoints, ...steps.joints];
-  const sweptEnvelope = unionRegions(
+  const sweptEnvelope = unionInHalves(
     configurations.flatMap((j) => partsAt(j).map((p) => ({ outer: p.outline, holes: [] }))),
   );
 
@@ -324,6 +325,39 @@ export function drawingModel(
       cautions: plan.cautions,
     },
   };
+}
+
+/** Most configurations taken from the plan's simulated motion for the swept envelope (evenly strided steps). */
+export const SWEEP_CONFIGURATIONS = 64;
+
+/**
+ * Joint positions between the stations from the plan's own simulation of the commanded motion (every joint at every
+ * step), at most `SWEEP_CONFIGURATIONS` evenly strided steps; null when the plan has no simulation or a step did not
+ * solve (then the drawings solve their own steps).
+ */
+function simulatedConfigurations(
+  plan: Plan,
+  stationCount: number,
+): { readonly joints: Map<string, Point>[]; readonly note: string } | null {
+  const simulation = plan.simulation;
+  if (!simulation || simulation.positionsM.length < 2 || !simulation.solved.every(Boolean)) return null;
+  const steps = simulation.positionsM.length;
+  const stride = Math.max(1, Math.ceil(steps / SWEEP_CONFIGURATIONS));
+  const joints: Map<string, Point>[] = [];
+  for (let k = 0; k < steps; k += stride) {
+    joints.push(new Map(simulation.joints.map((j) => [j.id, j.positionsMm[k]!] as const)));
+  }
+  return {
+    joints,
+    note: `swept envelope over the ${stationCount} stations and ${joints.length} of the ${steps} steps of the plan's simulated motion (every ${stride}${stride === 1 ? 'st' : 'th'} step)`,
+  };
+}
+
+/** Union of many regions, halves first: clipper's cost grows faster than the number of overlapping outlines. */
+function unionInHalves(regions: readonly Region[]): Region[] {
+  if (regions.length <= 8) return unionRegions(regions);
+  const mid = regions.length >> 1;
+  return unionRegions([...unionInHalves(regions.slice(0, mid)), ...unionInHalves(regions.slice(mid))]);
 }
 
 /**

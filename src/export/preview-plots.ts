@@ -29,7 +29,13 @@ export interface PreviewPlots {
   readonly toM: number;
   readonly plots: readonly LinePlot[];
   /** Findings that have a line position, marked on every plot. */
-  readonly marks: readonly { readonly positionM: number; readonly code: string; readonly severity: string }[];
+  readonly marks: readonly {
+    readonly positionM: number;
+    /** End of the line-position range the finding covers, m, when it has one. */
+    readonly toPositionM: number | null;
+    readonly code: string;
+    readonly severity: string;
+  }[];
 }
 
 /** Samples of each actuator's motion drawn per plot. */
@@ -69,10 +75,21 @@ export function previewPlots(plan: Plan, schedule: Schedule): PreviewPlots {
     series.push({ label: 'station values', points: a.stationValues.map((v, i) => [x[i]!, v]), dots: true });
     plots.push({ title: `${a.id} (${a.kind}, joint ${a.joint})`, unit, series, limits: [] });
   });
+  // the plan's simulation of the commanded motion, step by step, where it has one
+  const simulation = plan.simulation ?? null;
+  const simulated = (label: string, values: readonly number[] | undefined): PlotSeries[] => {
+    if (!simulation || !values) return [];
+    const points = simulation.positionsM.flatMap((at, k) => {
+      const v = values[k];
+      return v !== undefined && Number.isFinite(v) ? [[at, v] as [number, number]] : [];
+    });
+    return points.length > 1 ? [{ label, points: thin(points), dots: false }] : [];
+  };
   plots.push({
     title: 'orifice area',
     unit: 'mm2',
     series: [
+      ...simulated('simulated motion', simulation?.areaMm2),
       { label: 'target', points: checks.map((c, i) => [x[i]!, c.areaMm2]), dots: true },
       {
         label: 'achieved',
@@ -86,6 +103,7 @@ export function previewPlots(plan: Plan, schedule: Schedule): PreviewPlots {
     title: 'draw-down ratio (area: orifice / product)',
     unit: '-',
     series: [
+      ...simulated('simulated motion', simulation?.drawDownRatio),
       { label: 'target orifice', points: checks.map((c, i) => [x[i]!, c.process.drawDownRatio]), dots: true },
       {
         label: 'achieved orifice',
@@ -101,21 +119,40 @@ export function previewPlots(plan: Plan, schedule: Schedule): PreviewPlots {
     ],
   });
   plots.push({
-    title: 'puller speed that holds the target draw-down',
+    title: 'puller speed',
     unit: 'm/min',
     series: [
+      ...simulated(
+        simulation?.pullerFollowsArea ? 'puller (follows the area)' : 'puller (runs at line speed)',
+        simulation?.pullerSpeedMPerS.map((v) => v * 60),
+      ),
       {
-        label: 'puller speed',
+        label: 'for target draw-down',
         points: checks.map((c, i) => [x[i]!, c.process.pullerSpeedForTargetMPerS * 60]),
         dots: true,
       },
     ],
     limits: [{ label: 'nominal line speed', value: schedule.process.lineSpeedMPerS * 60 }],
   });
-  const marks = plan.findings.flatMap((f) => {
+  const marks = findingMarks(plan, x);
+  return { fromM, toM, plots, marks };
+}
+
+/** Curves of the preview are drawn with at most this many points. */
+const CURVE_POINTS = 400;
+
+/** Every k-th point of a long curve (and its last one), so the preview stays small. */
+function thin(points: readonly (readonly [number, number])[]): (readonly [number, number])[] {
+  const stride = Math.max(1, Math.ceil(points.length / CURVE_POINTS));
+  const out = points.filter((_, k) => k % stride === 0);
+  if (out[out.length - 1] !== points[points.length - 1]) out.push(points[points.length - 1]!);
+  return out;
+}
+
+function findingMarks(plan: Plan, x: readonly number[]): PreviewPlots['marks'] {
+  return plan.findings.flatMap((f) => {
     const at = f.positionM ?? (f.station !== undefined ? x[f.station] : undefined);
     if (at === undefined || f.severity === 'info') return [];
-    return [{ positionM: at, code: f.code, severity: f.severity }];
+    return [{ positionM: at, toPositionM: f.toPositionM ?? null, code: f.code, severity: f.severity }];
   });
-  return { fromM, toM, plots, marks };
 }

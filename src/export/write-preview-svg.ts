@@ -13,6 +13,8 @@ const PANEL_HEIGHT = 260;
 const PLOT_HEIGHT = 190;
 const PLOT_LEFT = 80;
 const FONT = 12;
+/** Finding labels closer than this along the line are stacked, px. */
+const MARK_LABEL_PX = 130;
 
 /** Colours of the station panels and plot series (readable on white, distinct for colour-blind readers). */
 const COLOURS = Object.freeze({
@@ -188,25 +190,38 @@ function drawPlot(out: string[], plot: LinePlot, all: PreviewPlots, top: number,
     }
     out.push(`<text x="${n(right + 6)}" y="${n(plotTop + 12 + 15 * k)}" fill="${colour}">${escapeXml(s.label)}</text>`);
   });
-  // findings marked where they are along the line; codes at one place listed once, one under the other
-  const places = new Map<string, { x: number; codes: string[] }>();
+  // findings marked where they are along the line (a band over a range); codes at one place listed once, one under
+  // the other, and places closer than a label's width stacked below each other
+  const places = new Map<string, { x: number; to: number | null; codes: string[] }>();
   for (const m of all.marks) {
     if (m.positionM < all.fromM - 1e-9 || m.positionM > all.toM + 1e-9) continue;
-    const key = formatNumber(m.positionM, 6);
-    const place = places.get(key) ?? { x: px(m.positionM), codes: [] };
+    const to = m.toPositionM === null ? null : Math.min(m.toPositionM, all.toM);
+    const key = `${formatNumber(m.positionM, 6)}|${to === null ? '' : formatNumber(to, 6)}`;
+    const place = places.get(key) ?? { x: px(m.positionM), to: to === null ? null : px(to), codes: [] };
     if (!place.codes.includes(m.code)) place.codes.push(m.code);
     places.set(key, place);
   }
-  for (const [key, place] of places) {
+  let lastX = Number.NEGATIVE_INFINITY;
+  let row = 0;
+  for (const [key, place] of [...places.entries()].sort((a, b) => a[1].x - b[1].x)) {
+    const where = key.replace('|', ' to ').replace(/ to $/, '');
+    if (place.to !== null && place.to > place.x) {
+      out.push(
+        `<rect class="finding-range" x="${n(place.x)}" y="${n(plotTop)}" width="${n(place.to - place.x)}" height="${n(bottom - plotTop)}" fill="${COLOURS.mark}" fill-opacity="0.08"/>`,
+      );
+    }
     out.push(
-      `<line class="finding" x1="${n(place.x)}" y1="${n(plotTop)}" x2="${n(place.x)}" y2="${n(bottom)}" stroke="${COLOURS.mark}" stroke-dasharray="2 3"><title>${escapeXml(`${place.codes.join(', ')} at ${key} m`)}</title></line>`,
+      `<line class="finding" x1="${n(place.x)}" y1="${n(plotTop)}" x2="${n(place.x)}" y2="${n(bottom)}" stroke="${COLOURS.mark}" stroke-dasharray="2 3"><title>${escapeXml(`${place.codes.join(', ')} at ${where} m`)}</title></line>`,
     );
     if (!labelMarks) continue;
-    place.codes.forEach((code, j) => {
+    row = place.x - lastX < MARK_LABEL_PX ? row : 0;
+    lastX = place.x;
+    for (const code of place.codes) {
       out.push(
-        `<text x="${n(place.x + 3)}" y="${n(plotTop + 11 + 11 * j)}" fill="${COLOURS.mark}" font-size="10">${escapeXml(code)}</text>`,
+        `<text x="${n(place.x + 3)}" y="${n(plotTop + 11 + 11 * row)}" fill="${COLOURS.mark}" font-size="10">${escapeXml(code)}</text>`,
       );
-    });
+      row++;
+    }
   }
   out.push('</g>');
   return top + PLOT_HEIGHT;

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import {
   asciiText,
   DIE_BODY_LAYERS,
+  drawingModel,
   PART_LAYERS,
   PIN_HOLE_FIT_CLEARANCE_MM,
   partIds,
@@ -15,6 +16,7 @@ import {
   writePartsSheetDxf,
   writeStationsDxf,
 } from '../../src/export/index.js';
+import { regionArea } from '../../src/geometry/index.js';
 import { entitiesOn, isSimpleRing, planDemo, readDxf, shoelace, type Xy } from './demo-drawings.js';
 
 const demo = planDemo();
@@ -239,7 +241,19 @@ describe('die-body.dxf', () => {
       expect(parts).toHaveLength(5);
       for (const part of parts) expect(pcArea(pc.difference([part], envelope))).toBeLessThanOrEqual(1e-3);
     }
-    expect(texts(writeDieBodyDxf(model, hot)).join(' ')).toContain('28 configurations between them');
+    expect(texts(writeDieBodyDxf(model, hot)).join(' ')).toContain(
+      "61 of the 901 steps of the plan's simulated motion",
+    );
+  });
+
+  it('without the plan simulation the drawings solve 8 steps per transition themselves, 4 × 7 = 28 between the 4 stations of the repeat', () => {
+    const own = drawingModel({ ...plan, simulation: null }, schedule);
+    if (!own.ok) throw new Error(own.reason);
+    // periodic demo (repeat 1.5 m): 4 transitions, 7 configurations strictly between each pair of stations
+    expect(own.model.sweepNote).toContain('28 configurations between them');
+    // the envelope of the solved steps and of the simulated steps cover the same area within 1 % (both sample the motion)
+    const area = (m: typeof model) => m.sweptEnvelope.reduce((sum, r) => sum + regionArea(r), 0);
+    expect(Math.abs(area(own.model) - area(model)) / area(model)).toBeLessThan(0.01);
   });
 });
 
