@@ -204,6 +204,19 @@ export const SimulationWire = z.object({
     .number()
     .int()
     .describe('steps where the mechanism could not be assembled (0 when it moves throughout)'),
+  tracking: z
+    .object({
+      law_max_residual_mm: z
+        .number()
+        .describe('largest RMS distance of the pivots from the morph between station shapes, motion-law values, mm'),
+      tracked_max_residual_mm: z
+        .number()
+        .describe('the same with actuator values found by least squares at every step, mm'),
+    })
+    .nullable()
+    .describe(
+      'direct mode only (one actuator per chain degree of freedom, no links): following the morph between stations',
+    ),
 });
 
 export const PlanWire = z.object({

@@ -199,5 +199,11 @@ function simulationSummary(s: PlanSimulation) {
     transmission_angle_deg: range(s.transmissionDeg),
     min_clearance_mm: room.min,
     unsolved_steps: s.solved.filter((ok) => !ok).length,
+    tracking: s.tracking
+      ? {
+          law_max_residual_mm: mm(Math.max(0, ...s.tracking.lawResidualMm)),
+          tracked_max_residual_mm: mm(Math.max(0, ...s.tracking.residualMm)),
+        }
+      : null,
   };
 }

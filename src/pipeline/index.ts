@@ -30,3 +30,4 @@ export {
   setpointRowCount,
 } from './plan-tables.js';
 export { MAX_FRAMES, type PlanFrameParts, type PlanFrames, planFrames } from './plan-frames.js';
+export { type MorphTracking, trackMorph } from './track-morph.js';

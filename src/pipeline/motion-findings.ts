@@ -204,7 +204,21 @@ export function simulationFindings(sim: PlanSimulation, schedule: Schedule): Fin
       `Parts overlap by ${fmt(-sim.clearanceMm[run.worst]!)} mm ${range}: ${sim.clearanceParts[run.worst]} (room ${strideNote}). Give one part another layer or move the link.`,
   );
   findings.push(summary(sim, schedule, strideNote));
+  if (sim.tracking) findings.push(trackingNote(sim));
   return findings;
+}
+
+/** `MOTION_TRACKED`: how far the law's motion and the tracked motion stray from the morph between stations. */
+function trackingNote(sim: PlanSimulation): Finding {
+  const t = sim.tracking!;
+  const law = Math.max(0, ...t.lawResidualMm);
+  const tracked = Math.max(0, ...t.residualMm);
+  return {
+    code: 'MOTION_TRACKED',
+    severity: 'info',
+    value: tracked,
+    message: `Direct mode: every actuator drives a chain joint, so the intermediate shapes can follow the morph between the station shapes (each pivot blended between its stations by the motion law's weight). With the motion law's values the pivots stray up to ${fmt(law)} mm (RMS over the pivots) from it; with actuator values found by least squares at every step, up to ${fmt(tracked)} mm. The setpoint tables follow the motion law; the tracked values are in the plan's simulation.`,
+  };
 }
 
 function summary(sim: PlanSimulation, schedule: Schedule, strideNote: string): Finding {

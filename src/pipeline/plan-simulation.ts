@@ -8,6 +8,7 @@ import { type ChainFit, pivotFans, plateOutline } from '../synthesis/index.js';
 import type { ScheduleCheck } from './check-schedule.js';
 import type { PlanMotion } from './plan-motion.js';
 import { type MotionSimulation, type MotionSimulationInput, simulateMotion } from './simulate-motion.js';
+import { type MorphTracking, trackMorph } from './track-morph.js';
 
 /** Most steps a plan simulates; a finer setpoint grid is simulated on an even coarser grid (and the plan says so). */
 export const MAX_SIMULATION_STEPS = 2000;
@@ -47,6 +48,12 @@ export interface PlanSimulation extends MotionSimulation {
   readonly drawDownRatio: readonly number[];
   /** Die-land pressure per step over the first station's (power-law slit at the equivalent gap 2A/P). */
   readonly diePressureRatio: readonly number[];
+  /**
+   * Direct mode only (one actuator per degree of freedom, no links): the actuator values per step that follow the
+   * morph between station shapes by least squares (`trackMorph`), and how far the law's and the tracked motion stray
+   * from it; null otherwise.
+   */
+  readonly tracking: MorphTracking | null;
 }
 
 /** What the simulation is built from: the plan's parts. */
@@ -145,6 +152,8 @@ export function simulatePlan(parts: PlanSimulationParts): PlanSimulation | null 
     return slitPressureDropPa(slit, q) / firstPressure;
   });
   const timesS = follows ? timesAlongSpeeds(positionsM, pullerSpeedMPerS) : nominalTimes;
+  const direct = parts.mechanisation.mode === 'direct' && parts.mechanisation.links.length === 0;
+  const tracking = direct ? trackMorph({ ...input, clearance: null }, parts.fit.chain.pivots, positionsM) : null;
   const tipSpeedMmPerS = follows
     ? run.tipSpeedMmPerS.map((s, j) => {
         const a = Math.max(0, j - 1);
@@ -172,6 +181,7 @@ export function simulatePlan(parts: PlanSimulationParts): PlanSimulation | null 
     productAreaMm2: product,
     drawDownRatio,
     diePressureRatio,
+    tracking,
   };
 }
 

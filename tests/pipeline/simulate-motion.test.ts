@@ -101,6 +101,7 @@ function asPlanSimulation(sim: ReturnType<typeof simulateMotion>, stride: number
     productAreaMm2: sim.areaMm2.map(() => 1600),
     drawDownRatio: sim.areaMm2.map(() => 1),
     diePressureRatio: sim.areaMm2.map(() => 1),
+    tracking: null,
   };
 }
 
