@@ -120,10 +120,12 @@ export function createDrawing(model, plan) {
       h('span', { class: 'key key-plate' }),
       model.plates.some((p) => p.approximate) ? 'plate (pivot bar, shape not given)' : 'plate',
     ),
-    h('li', null, h('span', { class: 'key key-link' }), 'link'),
+    model.links.length ? h('li', null, h('span', { class: 'key key-link' }), 'link') : null,
     h('li', null, h('span', { class: 'key key-pin' }), 'pin'),
-    h('li', null, h('span', { class: 'key key-ground' }), 'ground pivot (die body)'),
-    h('li', null, h('span', { class: 'key key-actuated' }), 'driven joint'),
+    model.joints.some((j) => j.ground)
+      ? h('li', null, h('span', { class: 'key key-ground' }), 'ground pivot (die body)')
+      : null,
+    actuated.size ? h('li', null, h('span', { class: 'key key-actuated' }), 'driven joint') : null,
   );
   const element = h('div', { class: 'drawing' }, svg, legend);
 

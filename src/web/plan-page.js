@@ -29,15 +29,18 @@ const DEFAULT_SPEED = 10;
 /** Line metres a second at 1× when the plan gives no time base. */
 const FALLBACK_M_PER_S = 0.05;
 
-/** The downloads of a plan, with what each holds. */
+/** The downloads of a plan, with what each holds; drawings (DXF) take `?dimensions=cold|hot`. */
 const DOWNLOADS = [
   ['setpoints.csv', 'actuator setpoints per time step (CSV)'],
   ['setpoints.json', 'the same with units, law and cautions (JSON)'],
   ['cam-table.csv', 'electronic cam: line position against actuator values and slopes (CSV)'],
-  ['plates.dxf', 'plate outlines (DXF)'],
-  ['die-body.dxf', 'die body and opening (DXF)'],
-  ['stations.dxf', 'target and achieved orifice of every station (DXF)'],
-  ['preview.svg', 'preview drawing (SVG)'],
+  ['cam-table.json', 'the same with its metadata (JSON)'],
+  ['puller-speed.csv', 'puller speed against line position (CSV)'],
+  ['puller-speed.json', 'the same with units and cautions (JSON)'],
+  ['plates.dxf', 'every part to cut on one sheet, with a parts list (DXF)'],
+  ['die-body.dxf', 'die body: opening, pin holes, actuator mounts, swept area (DXF)'],
+  ['stations.dxf', 'target and achieved orifice and the parts at every station (DXF)'],
+  ['preview.svg', 'preview drawing with the stations and plots (SVG)'],
   ['motion.json', 'the sampled motion this page draws (JSON)'],
 ];
 
@@ -695,27 +698,72 @@ function clearanceWhere(c) {
 }
 
 /**
- * Links to every download; one the service cannot give for this plan says why.
+ * Links to every download, and to each part's own DXF; one the service cannot give for this plan says why. A choice of
+ * cold (as cut, room temperature) or hot (as planned, at die temperature) dimensions applies to every DXF link.
  * @param {any} plan
  */
 function downloadsSection(plan) {
-  const list = h('ul', { class: 'downloads' });
-  for (const [name, what] of DOWNLOADS) {
+  /** @type {HTMLAnchorElement[]} */
+  const dxfLinks = [];
+  /**
+   * @param {string} name  path under the plan
+   * @param {string} what
+   * @param {boolean} [ask]  ask the service (HEAD) whether it can give this file
+   */
+  const item = (name, what, ask = true) => {
     const link = /** @type {HTMLAnchorElement} */ (
-      h('a', { href: `${base}/${name}`, download: `${plan.name}-${name}` }, name)
+      h('a', { href: `${base}/${name}`, download: `${plan.name}-${name.replace('/', '-')}` }, name)
     );
+    if (name.endsWith('.dxf')) dxfLinks.push(link);
     sendTokenWithDownload(link);
     const note = h('span', { class: 'note' });
-    list.append(h('li', { 'data-download': name }, link, ` — ${what} `, note));
-    apiFetch(link.href, { method: 'HEAD' }).then((r) => {
-      if (!r.ok) note.textContent = `(not available for this plan: ${r.status})`;
-    });
-  }
+    if (ask) {
+      apiFetch(link.href, { method: 'HEAD' }).then((r) => {
+        if (!r.ok) note.textContent = `(not available for this plan: ${r.status})`;
+      });
+    }
+    return h('li', { 'data-download': name }, link, ` — ${what} `, note);
+  };
+  const parts = (plan.mechanism?.bodies ?? [])
+    .filter((/** @type {any} */ b) => b.kind === 'plate' || b.kind === 'link')
+    .map((/** @type {any} */ b) => b.id);
+  const dimensions = /** @type {HTMLSelectElement} */ (
+    h(
+      'select',
+      { id: 'dxf-dimensions' },
+      h('option', { value: 'cold' }, 'cold: as cut, at room temperature'),
+      h('option', { value: 'hot' }, 'hot: as planned, at die temperature'),
+    )
+  );
+  dimensions.addEventListener('change', () => {
+    for (const link of dxfLinks) {
+      const url = new URL(link.href);
+      url.searchParams.set('dimensions', dimensions.value);
+      link.href = url.pathname + url.search;
+    }
+  });
   return h(
     'section',
     { class: 'card', 'aria-labelledby': 'downloads-title' },
     h('h2', { id: 'downloads-title' }, 'Downloads'),
-    list,
+    h('p', null, h('label', { for: 'dxf-dimensions' }, 'DXF dimensions '), dimensions),
+    h(
+      'ul',
+      { class: 'downloads' },
+      DOWNLOADS.map(([name, what]) => item(name, what)),
+    ),
+    parts.length
+      ? h(
+          'details',
+          null,
+          h('summary', null, `Each part on its own (${parts.length} DXF files)`),
+          h(
+            'ul',
+            { class: 'downloads' },
+            parts.map((id) => item(`plates/${id}.dxf`, `${id} to cut (DXF)`, false)),
+          ),
+        )
+      : null,
   );
 }
 
