@@ -18,6 +18,7 @@ import { ApiTokens, type Principal } from './http/api-tokens.js';
 import { completeOpenapi, openapiInfo, registerComponentSchemas } from './http/build-openapi.js';
 import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './http/error-catalogue.js';
 import { downloadName } from './http/motion-tables.js';
+import { DownloadCache } from './http/download-cache.js';
 import { matchesEtag, planEtag } from './http/plan-gate.js';
 import { checkRoutes } from './http/routes/checks.js';
 import { pageRoutes } from './http/routes/pages.js';
@@ -75,6 +76,9 @@ export const SERVER_TIMEOUTS: ServerTimeouts = Object.freeze({
 
 /** Longest path parameter, characters (a plan id is a 36-character UUID); longer ones answer 404 `not_found`. */
 const MAX_PARAM_LENGTH = 100;
+
+/** Routes below this are a plan's downloads. */
+const DOWNLOAD_PREFIX = '/v1/plans/:id/';
 
 /** Seconds a client is told to wait before asking again for a plan that is not finished. */
 const POLL_AFTER_S = 1;
@@ -283,10 +287,17 @@ export async function buildApp(options: AppOptions) {
   await app.register(fastifySwaggerUi, { routePrefix: '/docs', staticCSP: true, uiConfig: { deepLinking: true } });
 
   // downloads of a plan (/v1/plans/{id}/…): unknown → 404, queued or running → 409 not_ready; finished → ETag,
-  // If-None-Match → 304, the plan's cautions named in a header, a file name when the route gives none
-  app.addHook('preHandler', async (request, reply) => {
+  // If-None-Match → 304, the plan's cautions named in a header, a file name when the route gives none; a download
+  // sent once is sent again from memory (a finished plan never changes)
+  const downloads = new DownloadCache();
+  const fromCache = new WeakSet<object>();
+  const downloadOf = (request: { routeOptions: { url?: string }; method: string }) => {
     const route = request.routeOptions.url ?? '';
-    if (!route.startsWith('/v1/plans/:id/') || request.method !== 'GET') return;
+    return route.startsWith(DOWNLOAD_PREFIX) && request.method === 'GET' ? route.slice(DOWNLOAD_PREFIX.length) : null;
+  };
+  app.addHook('preHandler', async (request, reply) => {
+    const resource = downloadOf(request);
+    if (resource === null) return;
     const id = (request.params as { id?: string }).id ?? '';
     const entry = store.entry(id);
     if (!entry) return send(reply, request.id, 'not_found', `No plan with id ${id}.`);
@@ -300,18 +311,38 @@ export async function buildApp(options: AppOptions) {
       );
     }
     const query = request.url.includes('?') ? request.url.slice(request.url.indexOf('?')) : '';
-    const etag = planEtag(entry, `${route.slice('/v1/plans/:id/'.length)}${query}`);
+    const etag = planEtag(entry, `${resource}${query}`);
     reply.header('link', `</v1/plans/${id}>; rel="describedby"`);
-    const cautions = store.get(id)?.plan.cautions.map((c) => c.code) ?? [];
-    if (cautions.length > 0) reply.header('x-cautions', cautions.join(', '));
     if (etag) {
       reply.header('etag', etag);
       reply.header('cache-control', 'private, no-cache');
       if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send();
+      const cached = downloads.get(etag);
+      if (cached) {
+        fromCache.add(request);
+        return reply.headers(cached.headers).send(cached.body);
+      }
     }
-    if (!reply.hasHeader('content-disposition')) {
-      const file = request.url.split('?')[0]!.split('/').slice(4).join('-');
-      reply.header('content-disposition', `attachment; filename="${downloadName(entry.name, file)}"`);
+    const cautions = store.get(id)?.plan.cautions.map((c) => c.code) ?? [];
+    if (cautions.length > 0) reply.header('x-cautions', cautions.join(', '));
+    const file = request.url.split('?')[0]!.split('/').slice(4).join('-');
+    reply.header('content-disposition', `attachment; filename="${downloadName(entry.name, file)}"`);
+  });
+  app.addHook('onSend', async (request, reply, payload) => {
+    if (reply.statusCode !== 200 || fromCache.has(request) || downloadOf(request) === null) return payload;
+    const etag = reply.getHeader('etag');
+    if (typeof etag !== 'string' || !(typeof payload === 'string' || Buffer.isBuffer(payload))) return payload;
+    const headers: Record<string, string> = {};
+    for (const name of ['content-type', 'content-disposition', 'x-cautions']) {
+      const value = reply.getHeader(name);
+      if (typeof value === 'string') headers[name] = value;
+    }
+    downloads.set(etag, (request.params as { id: string }).id, { body: payload, headers });
+    return payload;
+  });
+  app.addHook('onResponse', async (request, reply) => {
+    if (request.method === 'DELETE' && reply.statusCode === 204 && request.routeOptions.url === '/v1/plans/:id') {
+      downloads.forget((request.params as { id: string }).id);
     }
   });
 

@@ -41,6 +41,9 @@ export class WorkerPool {
       minThreads: threads,
       maxThreads: threads,
       idleTimeout: 60_000,
+      // workers yield the CPU to the service thread (Linux thread niceness, through @napi-rs/nice where present),
+      // so /healthz and reads stay fast on a machine whose cores the plans fill
+      niceIncrement: 10,
     });
   }
 

@@ -38,6 +38,8 @@ const ENTRY_COLUMNS = `p.id, p.created_at, p.name, p.schedule_hash, p.status, p.
 
 /** Decoded finished plans kept in memory, so repeated downloads of one plan do not parse it again. */
 const RECORD_CACHE_SIZE = 32;
+/** Finished plans' entries and reports kept in memory (they never change), so reading a plan touches no disk. */
+const FINISHED_CACHE_SIZE = 256;
 
 /**
  * Plans in one SQLite file (better-sqlite3, synchronous): write-ahead log, full sync, foreign keys, schema versions in
@@ -46,6 +48,8 @@ const RECORD_CACHE_SIZE = 32;
 export class SqlitePlanStore implements PlanStore {
   private readonly db: Database.Database;
   private readonly cache = new Map<string, PlanRecord>();
+  private readonly finishedEntries = new Map<string, PlanEntry>();
+  private readonly reports = new Map<string, string>();
   private readonly statements;
 
   constructor(path: string) {
@@ -134,8 +138,13 @@ export class SqlitePlanStore implements PlanStore {
   }
 
   entry(id: string): PlanEntry | undefined {
+    const known = this.finishedEntries.get(id);
+    if (known) return known;
     const row = this.statements.entry.get(id) as PlanRow | undefined;
-    return row ? toEntry(row) : undefined;
+    if (!row) return undefined;
+    const entry = toEntry(row);
+    if (entry.planHash !== null) remember(this.finishedEntries, id, entry, FINISHED_CACHE_SIZE);
+    return entry;
   }
 
   get(id: string): PlanRecord | undefined {
@@ -151,13 +160,16 @@ export class SqlitePlanStore implements PlanStore {
       schedule: decodeJson<Schedule>(row.schedule_json),
       plan: decodeJson<Plan>(row.plan_json),
     };
-    this.cache.set(id, record);
-    if (this.cache.size > RECORD_CACHE_SIZE) this.cache.delete(this.cache.keys().next().value!);
+    remember(this.cache, id, record, RECORD_CACHE_SIZE);
     return record;
   }
 
   report(id: string): string | undefined {
-    return (this.statements.report.get(id) as { json: string } | undefined)?.json;
+    const known = this.reports.get(id);
+    if (known !== undefined) return known;
+    const json = (this.statements.report.get(id) as { json: string } | undefined)?.json;
+    if (json !== undefined) remember(this.reports, id, json, FINISHED_CACHE_SIZE);
+    return json;
   }
 
   schedule(id: string): Schedule | undefined {
@@ -210,6 +222,8 @@ export class SqlitePlanStore implements PlanStore {
 
   delete(id: string): boolean {
     this.cache.delete(id);
+    this.finishedEntries.delete(id);
+    this.reports.delete(id);
     return this.db.transaction(() => {
       const row = this.statements.scheduleOf.get(id) as { hash: string } | undefined;
       if (!row) return false;
@@ -260,6 +274,12 @@ export class SqlitePlanStore implements PlanStore {
   close(): void {
     if (this.db.open) this.db.close();
   }
+}
+
+/** Keeps `value` under `key`, dropping the oldest past `size`. */
+function remember<T>(map: Map<string, T>, key: string, value: T, size: number): void {
+  map.set(key, value);
+  if (map.size > size) map.delete(map.keys().next().value!);
 }
 
 /** True when `cursor` is one `list` could have written. */
