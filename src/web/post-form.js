@@ -132,7 +132,7 @@ function annotatedSchedule(schedule, details) {
     const item = h(
       'li',
       { value: String(i + 1), class: errors.length ? 'line has-error' : 'line', 'data-path': line.path },
-      h('code', { style: null }, `${'  '.repeat(line.depth)}${line.text}`),
+      h('code', null, `${'  '.repeat(line.depth)}${line.text}`),
     );
     for (const e of errors) {
       item.append(

@@ -116,3 +116,16 @@ describe('findings over a range of line positions', () => {
     expect(chart.limits).toEqual([{ label: 'highest draw-down', value: 1.3, side: 'max' }]);
   });
 });
+
+describe('a plan with nothing to plot', () => {
+  it('buildCharts draws no chart for a series without samples (a failed plan has no stations)', () => {
+    const empty = {
+      ...model(),
+      positions: [],
+      stationPositions: [],
+      actuators: [],
+      series: { area_mm2: { positions: [], values: [], atStations: true } },
+    };
+    expect(buildCharts(empty, [])).toEqual([]);
+  });
+});

@@ -124,6 +124,10 @@ describe.skipIf(!hasChromium)(
       expect(plan.status).toBe('done');
       const errors: string[] = [];
       page.on('pageerror', (e) => errors.push(e.message));
+      // a strict Content-Security-Policy (helmet's) refuses inline script and style: the page must not need them
+      page.on('console', (m) => {
+        if (m.type() === 'error' && /Content Security Policy|Refused to/.test(m.text())) errors.push(m.text());
+      });
       await page.reload();
       await page.locator('#position').waitFor();
       expect(errors).toEqual([]);

@@ -106,7 +106,7 @@ export function buildCharts(model, findings, limits = {}) {
   for (const unit of ['deg', 'mm']) {
     const acts = model.actuators.filter((a) => a.unit === unit);
     const base = acts[0];
-    if (!base) continue;
+    if (!base || base.curve.positions.length === 0) continue;
     const x = [...base.curve.positions];
     charts.push({
       key: `actuators_${unit}`,
@@ -124,7 +124,7 @@ export function buildCharts(model, findings, limits = {}) {
   }
   for (const spec of PROCESS_CHARTS) {
     const curve = model.series[spec.key];
-    if (!curve) continue;
+    if (!curve || curve.positions.length === 0) continue;
     charts.push({
       key: spec.key,
       title: spec.title,
