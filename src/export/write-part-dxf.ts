@@ -64,6 +64,7 @@ export function partNotes(part: DrawnPart, model: DrawingModel, scale: ThermalSc
     `Part ${partLine(part, model)}.`,
     `Schedule ${model.scheduleName}; die runs ${model.polymer} at ${Math.round(model.dieTemperatureC)} deg C. Plate steel as the tool maker specifies (the expansion above is for H13 hot-work steel).`,
     `Placed as at station 1 (${mmText(station.positionM)} m along the line): pin hole centres are the plan's pivot points there. Melt edge (layer ${PART_LAYERS.melt}) faces the melt: keep it sharp and free of burrs.`,
+    `Pin hole centres: ${part.holes.map((h) => `${h.joint} (${mmText(h.centre[0] * scale.factor)}, ${mmText(h.centre[1] * scale.factor)})`).join(', ')}${spacing(part, scale.factor)}.`,
     part.exactOutline
       ? 'Cut outline: the plate outline the plan clips the die opening with, vertex for vertex.'
       : part.kind === 'plate'
@@ -71,6 +72,13 @@ export function partNotes(part: DrawnPart, model: DrawingModel, scale: ThermalSc
         : `Cut outline: ${outlineWords(part)}.`,
     ...commonNotes(model, scale),
   ];
+}
+
+/** Centre-to-centre distance of the first two pin holes, as a clause. */
+function spacing(part: DrawnPart, factor: number): string {
+  const [a, b] = part.holes;
+  if (!a || !b) return '';
+  return `; ${a.joint} to ${b.joint} ${mmText(Math.hypot(b.centre[0] - a.centre[0], b.centre[1] - a.centre[1]) * factor)} mm apart`;
 }
 
 function outlineWords(part: DrawnPart): string {

@@ -122,6 +122,23 @@ describe('per-part DXF of the demo plan, read back with dxf-parser', () => {
     expect(texts(writePartDxf(model, 'plate_2', hot)!).join('\n')).toContain('DIMENSIONS HOT');
   });
 
+  it("link_1.dxf: its two pin holes are the link's length apart, and its outline a capsule of half width e round them", () => {
+    const link = plan.mechanisation!.links[0]!;
+    const dxf = readDxf(writePartDxf(model, 'link_1', hot)!);
+    const [a, b] = entitiesOn<ICircleEntity>(dxf, 'CIRCLE', PART_LAYERS.holes).map((c) => c.center);
+    // a binary link keeps its pins a constant distance apart (Erdman, Sandor & Kota): the plan's link length
+    expect(Math.hypot(b!.x - a!.x, b!.y - a!.y)).toBeCloseTo(link.lengthMm, 5);
+    // capsule (stadium) area: 2e·L + π e² (polygonal arcs lose under 0.1 %)
+    const e = plan.fit!.shape.edgeOffsetMm;
+    const ring = ringOf(entitiesOn<ILwpolylineEntity>(dxf, 'LWPOLYLINE', PART_LAYERS.outline)[0]!);
+    const stadium = 2 * e * link.lengthMm + Math.PI * e * e;
+    expect(Math.abs(shoelace(ring)) / stadium).toBeGreaterThan(0.999);
+    expect(Math.abs(shoelace(ring)) / stadium).toBeLessThanOrEqual(1);
+    expect(texts(writePartDxf(model, 'link_1', hot)!).join(' ')).toContain(
+      `link_1_ground to link_1_b ${link.lengthMm.toFixed(3)} mm apart`,
+    );
+  });
+
   it('an unknown part id gives null', () => {
     expect(writePartDxf(model, 'plate_9', hot)).toBeNull();
   });
