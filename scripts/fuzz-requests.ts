@@ -3,8 +3,10 @@
  * counts by status and error code, every broken promise (a 5xx, an error outside the catalogue, a detail without a
  * field path, an unknown field not warned about, a plan that does not read back) with the request, and the time taken.
  *
- *   npx tsx scripts/fuzz-requests.ts --checks 5000 --plans 400 [--seed 123]
+ *   npx tsx scripts/fuzz-requests.ts --checks 10000 --plans 1500 [--seed 123]
  *
+ * Plans are computed by the app's worker pool: each 202 is read back until the plan has finished. The same property
+ * runs in CI (tests/http/property-bad-input.test.ts) with FUZZ_RUNS requests (800 by default).
  * Exit code 1 when any promise was broken. The CI property test runs a fixed-seed sample of the same generators.
  */
 import { parseArgs } from 'node:util';
