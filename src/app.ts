@@ -175,7 +175,9 @@ export async function buildApp(options: AppOptions) {
   app.decorateRequest('principal', null);
   if (tokens.required) {
     app.addHook('onRequest', async (request, reply) => {
-      if (!request.url.startsWith('/v1/')) return;
+      // the route matched, not the raw URL: a percent-encoded path reaches the same route and needs the same token
+      const route = request.routeOptions.url;
+      if (route === undefined || !route.startsWith('/v1/')) return;
       const principal = tokens.identify(request.headers.authorization);
       if (principal === null) {
         reply.header('www-authenticate', 'Bearer realm="die-motion-planner"');
@@ -186,7 +188,7 @@ export async function buildApp(options: AppOptions) {
         return send(reply, request.id, 'unauthorized', `The request ${sent}: send Authorization: Bearer <token>.`);
       }
       request.principal = principal;
-      const reads = request.method === 'GET' || request.method === 'HEAD' || request.url.startsWith('/v1/checks');
+      const reads = request.method === 'GET' || request.method === 'HEAD' || route === '/v1/checks';
       if (!reads && principal.scope !== 'write') {
         return send(
           reply,
@@ -293,7 +295,8 @@ export async function buildApp(options: AppOptions) {
   const fromCache = new WeakSet<object>();
   const downloadOf = (request: { routeOptions: { url?: string }; method: string }) => {
     const route = request.routeOptions.url ?? '';
-    return route.startsWith(DOWNLOAD_PREFIX) && request.method === 'GET' ? route.slice(DOWNLOAD_PREFIX.length) : null;
+    const reads = request.method === 'GET' || request.method === 'HEAD';
+    return route.startsWith(DOWNLOAD_PREFIX) && reads ? route.slice(DOWNLOAD_PREFIX.length) : null;
   };
   app.addHook('preHandler', async (request, reply) => {
     const resource = downloadOf(request);
@@ -329,7 +332,8 @@ export async function buildApp(options: AppOptions) {
     reply.header('content-disposition', `attachment; filename="${downloadName(entry.name, file)}"`);
   });
   app.addHook('onSend', async (request, reply, payload) => {
-    if (reply.statusCode !== 200 || fromCache.has(request) || downloadOf(request) === null) return payload;
+    if (request.method !== 'GET' || reply.statusCode !== 200 || fromCache.has(request)) return payload;
+    if (downloadOf(request) === null) return payload;
     const etag = reply.getHeader('etag');
     if (typeof etag !== 'string' || !(typeof payload === 'string' || Buffer.isBuffer(payload))) return payload;
     const headers: Record<string, string> = {};

@@ -71,6 +71,11 @@ describe('API tokens', () => {
     expect(res.headers['www-authenticate']).toMatch(/^Bearer/);
   });
 
+  it('a percent-encoded path to a /v1 route needs a token too', async () => {
+    const res = await request(app.server).get('/%761/plans');
+    expect(res.status).toBe(401);
+  });
+
   it('an unknown token, or a malformed header, is 401', async () => {
     for (const header of [`Bearer ${READ}x`, `Basic ${READ}`, 'Bearer', `Bearer ${READ} extra`]) {
       const res = await request(app.server).get('/v1/plans').set('authorization', header);
@@ -98,7 +103,9 @@ describe('API tokens', () => {
   it('a write token posts a plan; the read token reads it', async () => {
     const res = await postPlan(WRITE);
     expect(res.status).toBe(202);
-    const back = await request(app.server).get(res.headers.location as string).set('authorization', `bearer ${READ}`);
+    const back = await request(app.server)
+      .get(res.headers.location as string)
+      .set('authorization', `bearer ${READ}`);
     expect(back.status).toBe(200);
   }, 60_000);
 
