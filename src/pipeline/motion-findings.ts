@@ -1,6 +1,7 @@
 import type { Finding, Schedule } from '../domain/index.js';
+import type { Point } from '../geometry/index.js';
 import { metresPerMinute } from '../motion/index.js';
-import { messageNumber as fmt } from '../process/index.js';
+import { FLOW_IMBALANCE_LIMIT, messageNumber as fmt, ratioText } from '../process/index.js';
 import type { PlanSimulation } from './plan-simulation.js';
 
 /** A pressure rise over the first station worth a warning: the same 1.5× as `PRESSURE_SWING` (common practice). */
@@ -50,7 +51,8 @@ export function brokenRuns(
 /**
  * Findings of the per-step simulation, each with the line-position range where a limit is broken (`positionM` …
  * `toPositionM`) and the worst value in it: `MOTION_NOT_SOLVED`, `MOTION_LEAK`, `MOTION_OPENING_BEYOND_STATIONS`,
- * `MOTION_THIN_WALL`, `MOTION_DRAW_DOWN_HIGH` / `_LOW` (puller at the nominal speed), `MOTION_PRESSURE_RISE`,
+ * `MOTION_THIN_WALL` (with `at`, where the thinnest wall is), `MOTION_WALL_RATIO`, `MOTION_FLOW_IMBALANCE`,
+ * `MOTION_DRAW_DOWN_HIGH` / `_LOW` (puller at the nominal speed), `MOTION_PRESSURE_RISE`,
  * `MOTION_TRANSMISSION_ANGLE`, `MOTION_CLEARANCE`; and one `MOTION_SIMULATED` note saying what was simulated (steps,
  * time step, wall stride, the fastest plate tip, the puller's range when it follows the area).
  */
@@ -67,6 +69,7 @@ export function simulationFindings(sim: PlanSimulation, schedule: Schedule): Fin
     value: (j: number) => number,
     limit: number | undefined,
     text: (run: BrokenRun, range: string) => string,
+    at?: (j: number) => Point | null,
   ) => {
     runs.slice(0, MAX_RANGES).forEach((run, k) => {
       const more =
@@ -78,6 +81,7 @@ export function simulationFindings(sim: PlanSimulation, schedule: Schedule): Fin
         toPositionM: x[run.to]!,
         value: value(run.worst),
         ...(limit !== undefined ? { limit } : {}),
+        ...(at?.(run.worst) ? { at: at(run.worst)! } : {}),
         message: text(run, rangeText(x[run.from]!, x[run.to]!, schedule)) + more,
       });
     });
@@ -134,6 +138,40 @@ export function simulationFindings(sim: PlanSimulation, schedule: Schedule): Fin
     limits.minWallMm,
     (run, range) =>
       `A wall of the orifice is ${fmt(sim.minWallMm[run.worst]!)} mm thin ${range}, below the ${fmt(limits.minWallMm)} mm minimum (walls ${strideNote}). Add a station there or change the neighbouring stations.`,
+    (j) => sim.minWallAt[j] ?? null,
+  );
+  const wallRatio = sim.minWallMm.map((min, j) => {
+    const max = sim.maxWallMm[j];
+    return min !== null && max !== null && max !== undefined && min > 0 ? max / min : null;
+  });
+  add(
+    'MOTION_WALL_RATIO',
+    'warning',
+    brokenRuns(
+      wallRatio,
+      (v) => v > limits.maxWallRatio,
+      (a, b) => a > b,
+    ),
+    (j) => wallRatio[j]!,
+    limits.maxWallRatio,
+    (run, range) =>
+      `The thickest wall (${fmt(sim.maxWallMm[run.worst]!)} mm) is ${fmt(wallRatio[run.worst]!)}× the thinnest (${fmt(sim.minWallMm[run.worst]!)} mm) ${range}, above limits.max_wall_ratio ${fmt(limits.maxWallRatio)} (walls ${strideNote}). Even out the walls of the neighbouring stations, or add a station there.`,
+  );
+  const n = schedule.process.powerLawN;
+  // the same rule as the stations' FLOW_IMBALANCE: (H_max/H_min)^(2+1/n) at equal pressure (power-law slit)
+  const imbalance = wallRatio.map((r) => (r === null ? null : r ** (2 + 1 / n)));
+  add(
+    'MOTION_FLOW_IMBALANCE',
+    'warning',
+    brokenRuns(
+      imbalance,
+      (v) => v > FLOW_IMBALANCE_LIMIT,
+      (a, b) => a > b,
+    ),
+    (j) => imbalance[j]!,
+    FLOW_IMBALANCE_LIMIT,
+    (run, range) =>
+      `At equal pressure the thickest wall flows ${ratioText(imbalance[run.worst]!)} faster per width than the thinnest ${range} (power-law slit, n ${fmt(n)}; limit ${FLOW_IMBALANCE_LIMIT}×, common practice, no source; walls ${strideNote}). Even out the walls or add flow restrictors.`,
   );
   if (!sim.pullerFollowsArea) {
     add(

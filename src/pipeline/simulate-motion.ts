@@ -2,11 +2,12 @@ import {
   closestPointOnPolyline,
   differenceRegions,
   intersectRegions,
-  measureMinWall,
+  measureWalls,
   type Point,
   pointInRing,
   type Region,
   type Ring,
+  type WallMeasurement,
   regionArea,
   regionPerimeter,
   regionsArea,
@@ -95,6 +96,10 @@ export interface MotionSimulation {
   readonly beyondStationsMm: readonly number[];
   /** Thinnest wall measured across, mm, at the wall stride; null between. */
   readonly minWallMm: readonly (number | null)[];
+  /** Where the thinnest wall is (its middle, die-body frame, mm), at the wall stride; null between. */
+  readonly minWallAt: readonly (Point | null)[];
+  /** Thickest wall (largest inscribed circle's diameter), mm, at the wall stride; null between. */
+  readonly maxWallMm: readonly (number | null)[];
   /** Smallest room between any two parts, mm (negative: overlap), at the wall stride; null between or unchecked. */
   readonly clearanceMm: readonly (number | null)[];
   /** Which parts have it. */
@@ -107,8 +112,8 @@ export interface MotionSimulation {
  * which is the continuation of docs/MODEL.md §3 "Position analysis". With `clip`, each step also puts the plates
  * where the mechanism has them (`plateOutline`) and clips the opening (opening − plates, one boolean): the piece that
  * overlaps the neighbouring stations most is the orifice (less the station's holes), every other piece is leaking
- * opening; how far the orifice reaches outside both neighbouring stations' orifices is measured at its vertices. At `wallStride` the thinnest wall
- * (`measureMinWall`), transmission angles and clearances are measured too. Pure and deterministic.
+ * opening; how far the orifice reaches outside both neighbouring stations' orifices is measured at its vertices. At `wallStride` the thinnest and
+ * thickest walls (`measureWalls`), transmission angles and clearances are measured too. Pure and deterministic.
  */
 export function simulateMotion(input: MotionSimulationInput, settings: MotionSimulationSettings): MotionSimulation {
   const { mechanism, trajectories, pivots, stations } = input;
@@ -134,6 +139,8 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
   const leakAreaMm2: number[] = [];
   const beyondStationsMm: number[] = [];
   const minWallMm: (number | null)[] = [];
+  const minWallAt: (Point | null)[] = [];
+  const maxWallMm: (number | null)[] = [];
   const clearanceMm: (number | null)[] = [];
   const clearanceParts: (string | null)[] = [];
   let maxIterations = 0;
@@ -179,6 +186,8 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
       leakAreaMm2.push(0);
       beyondStationsMm.push(0);
       minWallMm.push(null);
+      minWallAt.push(null);
+      maxWallMm.push(null);
       continue;
     }
     const plates: Region[] = [];
@@ -218,7 +227,10 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
     perimeterMm.push(area > 0 ? regionPerimeter(orifice) : 0);
     leakAreaMm2.push(leak);
     beyondStationsMm.push(area > 0 ? reachBeyond(orifice, near) : 0);
-    minWallMm.push(measured && area > 0 ? wallOf(orifice) : null);
+    const walls = measured && area > 0 ? wallsOf(orifice) : null;
+    minWallMm.push(walls ? walls.minWallMm : null);
+    minWallAt.push(walls ? walls.minAt : null);
+    maxWallMm.push(walls ? walls.maxWallMm : null);
   }
   return {
     positionsM: [...positionsM],
@@ -234,6 +246,8 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
     leakAreaMm2,
     beyondStationsMm,
     minWallMm,
+    minWallAt,
+    maxWallMm,
     clearanceMm,
     clearanceParts,
   };
@@ -282,9 +296,9 @@ function reachBeyond(orifice: Region, near: readonly Ring[]): number {
   return reach;
 }
 
-function wallOf(orifice: Region): number | null {
+function wallsOf(orifice: Region): WallMeasurement | null {
   try {
-    return measureMinWall(orifice, DEFAULT_TOLERANCES).minWallMm;
+    return measureWalls(orifice, DEFAULT_TOLERANCES);
   } catch {
     // a region with no measurable area has no wall; the area series shows it
     return null;

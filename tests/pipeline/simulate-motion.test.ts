@@ -152,6 +152,39 @@ describe('simulateMotion: leaks between valid stations', () => {
   });
 });
 
+describe('simulationFindings: walls along the motion', () => {
+  it('walls measured every 10 steps give MOTION_WALL_RATIO and MOTION_FLOW_IMBALANCE over the ranges where they break the limits', () => {
+    const { input } = wiper();
+    const positionsM = Array.from({ length: 201 }, (_, i) => i / 200);
+    const sim = simulateMotion(input, {
+      positionsM,
+      timesS: positionsM.map((x) => x * 60),
+      clip: false,
+      wallStride: 10,
+    });
+    const measured = (j: number) => j % 10 === 0;
+    const maxAt = (j: number) => (j >= 50 && j <= 70 ? 6 : j >= 120 && j <= 130 ? 3.5 : 2.4);
+    const planned = {
+      ...asPlanSimulation(sim, 10),
+      minWallMm: positionsM.map((_, j) => (measured(j) ? 2 : null)),
+      maxWallMm: positionsM.map((_, j) => (measured(j) ? maxAt(j) : null)),
+    };
+    // scheduleForTest: max_wall_ratio 2.5, power-law n = 1, so the flow ratio is (H_max/H_min)^(2+1/n) = r³ (slit flow,
+    // docs/MODEL.md §3), above the 5× limit from r = 5^(1/3) ≈ 1.71 on
+    const findings = simulationFindings(planned, scheduleForTest({ stations: 2 }));
+    const ratio = findings.filter((f) => f.code === 'MOTION_WALL_RATIO');
+    expect(ratio).toHaveLength(1);
+    expect(ratio[0]).toMatchObject({ positionM: 0.25, toPositionM: 0.35, value: 3, limit: 2.5 });
+    const flow = findings.filter((f) => f.code === 'MOTION_FLOW_IMBALANCE');
+    expect(flow.map((f) => [f.positionM, f.toPositionM])).toEqual([
+      [0.25, 0.35],
+      [0.6, 0.65],
+    ]);
+    expect(flow[0]!.value).toBeCloseTo(27, 12);
+    expect(flow[1]!.value).toBeCloseTo(1.75 ** 3, 12);
+  });
+});
+
 describe('simulatePlan on the demo (fixtures/demo-edging-strip.json)', () => {
   const wire = fixture('demo-edging-strip') as Parameters<typeof toSchedule>[0];
   const mapping = toSchedule(wire);
