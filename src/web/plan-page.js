@@ -53,11 +53,21 @@ async function start() {
     if (!response.ok) throw new PlanFetchError(response.status, plan);
     showCautions(plan.cautions ?? []);
     if (!FINISHED.has(plan.status)) {
+      const title = document.getElementById('plan-title');
+      if (title && plan.name) {
+        fill(title, plan.name, ' ', h('span', { class: `badge status-${plan.status}` }, plan.status));
+        document.title = `${plan.name} – plan review`;
+      }
       statusLine.textContent = progressText(plan);
       const bar = h('progress', { max: '1', 'aria-label': 'plan progress' });
       statusLine.after(bar);
       plan = await followPlan(id, (p) => {
         statusLine.textContent = progressText(p);
+        const badge = document.querySelector('#plan-title .badge');
+        if (badge) {
+          badge.textContent = p.status;
+          badge.className = `badge status-${p.status}`;
+        }
         if (typeof p?.progress?.fraction === 'number') bar.setAttribute('value', String(p.progress.fraction));
       });
       bar.remove();
