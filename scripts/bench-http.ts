@@ -1,7 +1,8 @@
 /**
  * HTTP benchmark of the plan service on loopback (autocannon), against the real server in a child process (tsx
  * src/server.ts) on a fresh SQLite file, with the rate limit off:
- *   1. GET /v1/plans/{id} of a finished demo plan at 100 connections: requests/s, p50/p99 latency (target p99 < 10 ms)
+ *   1. GET /v1/plans/{id} of a finished demo plan at 100 connections: requests/s, p50/p99 latency (target p99 < 10 ms),
+ *      and at 1 connection (the service time without queueing)
  *   2. GET /v1/plans/{id}/setpoints.csv at 100 connections
  *   3. GET /healthz at 10 connections while demo plans keep the workers busy (target p99 < 50 ms)
  *   4. demo plans finished per minute (a batch posted at once, timed until the last finishes)
@@ -44,6 +45,9 @@ try {
   const rows: string[][] = [['what', 'requests/s', 'p50 ms', 'p99 ms', 'errors / non-2xx']];
   const plan = await cannon(`${base}/v1/plans/${first}`, connections);
   rows.push([`GET /v1/plans/{id}, ${connections} connections`, ...figures(plan)]);
+  // the same request one at a time: the service time, without the queueing of 100 connections on few cores
+  const single = await cannon(`${base}/v1/plans/${first}`, 1);
+  rows.push(['GET /v1/plans/{id}, 1 connection', ...figures(single)]);
   const csv = await cannon(`${base}/v1/plans/${first}/setpoints.csv`, connections);
   rows.push([`GET setpoints.csv, ${connections} connections`, ...figures(csv)]);
 
