@@ -106,12 +106,12 @@ export class PlanJobs {
     const { store, pool, log } = this.options;
     const controller = new AbortController();
     const timer = setTimeout(() => controller.abort('time' satisfies StopReason), this.hardLimitMs);
-    let lastProgress = 0;
+    let last = { t: 0, stage: '' };
     const onProgress = (p: PlanProgress) => {
-      // a few stages per plan: write each, but never more often than every 100 ms
+      // a few stages per plan: write every new stage, and within one stage at most every 100 ms
       const t = this.now();
-      if (t - lastProgress < 100 && p.fraction < 1) return;
-      lastProgress = t;
+      if (p.stage === last.stage && t - last.t < 100) return;
+      last = { t, stage: p.stage };
       store.setProgress(entry.id, p);
     };
     log('info', { plan: entry.id, attempt: entry.attempts }, 'plan started');
