@@ -42,9 +42,10 @@ export interface DrawnPart {
   /** Closed cut outline, counter-clockwise, first point not repeated. */
   readonly outline: Ring;
   /**
-   * True when `outline` is, vertex for vertex, the plate outline the plan's clipping used at this configuration
-   * (`plateOutline`); false when a boss round a link pin widens the plate (then the union with the boss, on clipper's
-   * 0.1 µm grid) or for parts the clipping does not use (links, slider blocks, telescoping halves).
+   * True when `outline` is the plate outline the plan's clipping uses, built the same way (`plateOutline` on the
+   * plan's reported pivots, with the pivot fans over all stations and the plate's shaped edge); false when a boss round
+   * a link pin widens the plate (then the union with the boss, on clipper's 0.1 µm grid) and for parts the clipping
+   * does not use (links, slider blocks, telescoping halves).
    */
   readonly exactOutline: boolean;
   readonly holes: readonly DrawnHole[];

@@ -66,7 +66,7 @@ export function partNotes(part: DrawnPart, model: DrawingModel, scale: ThermalSc
     `Placed as at station 1 (${mmText(station.positionM)} m along the line): pin hole centres are the plan's pivot points there. Melt edge (layer ${PART_LAYERS.melt}) faces the melt: keep it sharp and free of burrs.`,
     `Pin hole centres: ${part.holes.map((h) => `${h.joint} (${mmText(h.centre[0] * scale.factor)}, ${mmText(h.centre[1] * scale.factor)})`).join(', ')}${spacing(part, scale.factor)}.`,
     part.exactOutline
-      ? 'Cut outline: the plate outline the plan clips the die opening with, vertex for vertex.'
+      ? "Cut outline: the plate outline the plan clips the die opening with, built on the plan's pivots."
       : part.kind === 'plate'
         ? 'Cut outline: the plate outline the plan clips with, widened by a boss round a link pin (as the clearance checks draw it).'
         : `Cut outline: ${outlineWords(part)}.`,

@@ -96,6 +96,22 @@ describe('per-part DXF of the demo plan, read back with dxf-parser', () => {
     }
   });
 
+  it("the drawn plates reproduce the plan's achieved orifice at every station: opening − plates, clipped by polygon-clipping (0.02 mm²)", () => {
+    // the die model of docs/MODEL.md §2: the orifice is the opening minus the union of the plates (pins fill the holes)
+    const opening = plan.fit!.opening.outer.map((p) => [p[0], p[1]] as Xy);
+    model.stations.forEach((s, i) => {
+      const plates = s.parts.filter((p) => p.kind === 'plate').map((p) => [p.outline.map((q) => [q[0], q[1]] as Xy)]);
+      const open = pc.difference([opening], ...(plates as pc.Polygon[]));
+      const target = schedule.stations[i]!.orifice.outer.map((p) => [p[0], p[1]] as Xy);
+      // the piece overlapping the target most is the orifice (the plan's rule, src/synthesis/achieved-orifice.ts)
+      const piece = open.reduce((best, poly) =>
+        pcArea(pc.intersection(poly, [target])) > pcArea(pc.intersection(best, [target])) ? poly : best,
+      );
+      const planned = plan.mechanisation!.stations[i]!.achievedOrifice;
+      expect(Math.abs(pcArea([piece]) - Math.abs(shoelace(planned.outer as Xy[])))).toBeLessThanOrEqual(0.02);
+    });
+  });
+
   it('plates carry their melt edge on its own layer, from one round end to the other; links have none', () => {
     for (let k = 1; k <= 4; k++) {
       const dxf = readDxf(writePartDxf(model, `plate_${k}`, hot)!);
