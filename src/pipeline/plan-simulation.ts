@@ -13,7 +13,7 @@ import { type MorphTracking, trackMorph } from './track-morph.js';
 /** Most steps a plan simulates; a finer setpoint grid is simulated on an even coarser grid (and the plan says so). */
 export const MAX_SIMULATION_STEPS = 2000;
 /** About this many wall measurements (and transmission and clearance checks) per plan, spread evenly over the steps. */
-export const WALL_MEASUREMENTS = 60;
+export const WALL_MEASUREMENTS = 40;
 
 /**
  * The commanded motion simulated step by step (docs/MODEL.md §3), with the process figures per step. Plain data: one
