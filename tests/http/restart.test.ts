@@ -42,6 +42,8 @@ async function startServer(port: number): Promise<Running> {
       HOST: '127.0.0.1',
       LOG_LEVEL: 'info',
       PLAN_WORKERS: '1',
+      // the crowned strip's search stops after 2 s with what it has: long enough to be caught running, short for CI
+      PLAN_TIME_LIMIT_S: '2',
       SHUTDOWN_GRACE_S: '0.5',
       RATE_LIMIT_PER_MINUTE: '0',
       API_TOKENS: '',

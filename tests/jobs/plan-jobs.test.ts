@@ -112,7 +112,7 @@ describe('PlanJobs', () => {
     const drained = await jobs.drain(100);
     expect(drained).toEqual({ finished: 0, requeued: 1 });
     expect(store.entry(id)?.status).toBe('queued');
-    const next = new PlanJobs({ store, pool, concurrency: 1, timeLimitS: 20, log: () => {} });
+    const next = new PlanJobs({ store, pool, concurrency: 1, timeLimitS: 2, log: () => {} });
     next.start();
     await until(() => store.entry(id)?.status === 'incomplete');
     expect(store.entry(id)?.attempts).toBe(2);
