@@ -85,6 +85,17 @@ describe('drawing downloads of the demo plan', () => {
     expect(a).toBe(b);
   });
 
+  it('each part is its own resource: plate_1 and plate_2 carry different ETags, and plate_1’s ETag gets no 304 for plate_2', async () => {
+    // RFC 9110 §8.8.3: an entity tag identifies one representation of one resource
+    const one = await get(`/v1/plans/${id}/plates/plate_1.dxf`);
+    const two = await get(`/v1/plans/${id}/plates/plate_2.dxf`);
+    expect(one.headers.etag).toBeDefined();
+    expect(two.headers.etag).not.toBe(one.headers.etag);
+    const asked = await get(`/v1/plans/${id}/plates/plate_2.dxf`).set('if-none-match', one.headers.etag as string);
+    expect(asked.status).toBe(200);
+    expect(asked.body).toBe(two.body);
+  });
+
   it('an unknown part is 404 not_found naming the parts the plan has', async () => {
     const res = await request(testApp().server).get(`/v1/plans/${id}/plates/plate_9.dxf`);
     expect(res.status).toBe(404);
