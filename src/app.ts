@@ -286,7 +286,14 @@ export async function buildApp(options: AppOptions) {
     transform: jsonSchemaTransform,
     transformObject: (document) => completeOpenapi(jsonSchemaTransformObject(document)),
   });
-  await app.register(fastifySwaggerUi, { routePrefix: '/docs', staticCSP: true, uiConfig: { deepLinking: true } });
+  // the API reference page; its own content security policy, with the inline styles swagger-ui sets
+  await app.register(fastifySwaggerUi, {
+    routePrefix: '/docs',
+    staticCSP: true,
+    transformStaticCSP: (header) =>
+      header.replace("style-src 'self' https:", "style-src 'self' https: 'unsafe-inline'"),
+    uiConfig: { deepLinking: true },
+  });
 
   // downloads of a plan (/v1/plans/{id}/…): unknown → 404, queued or running → 409 not_ready; finished → ETag,
   // If-None-Match → 304, the plan's cautions named in a header, a file name when the route gives none; a download
