@@ -1,4 +1,5 @@
 import { h, s } from './dom.js';
+import { findingsAt } from './lib/charts.js';
 import { describePose, fixed } from './lib/describe.js';
 import { boundsOf } from './lib/geometry.js';
 import { nearestStation, poseAt } from './lib/motion-model.js';
@@ -12,11 +13,14 @@ import { nearestStation, poseAt } from './lib/motion-model.js';
  * orifice of the nearest station dashed, the plates by layer, the links, every pin and the ground pivots. Every moving
  * part carries its die-body coordinates as data attributes (`data-x`, `data-y` on pins; `data-a-x` … on plates and
  * links), rounded to 0.1 µm, so what is drawn can be read back.
+ * Findings with a place in the die are marked there (a ring in the severity's colour) while the line position is
+ * within their range, or within `toleranceM` of their station.
  * @param {MotionModel} model
  * @param {any} plan  `GET /v1/plans/{id}`
+ * @param {number} toleranceM
  * @returns {{ element: HTMLElement, update: (pose: Pose) => void }}
  */
-export function createDrawing(model, plan) {
+export function createDrawing(model, plan, toleranceM) {
   const box = drawingBounds(model, plan);
   const size = Math.max(box.maxX - box.minX, box.maxY - box.minY, 1);
   const pad = 0.06 * size + 2;
@@ -90,6 +94,8 @@ export function createDrawing(model, plan) {
     pins.append(el);
   }
   world.append(pins);
+  const findingMarks = s('g', { class: 'finding-marks' });
+  world.append(findingMarks);
 
   const labels = s('g', { class: 'labels', 'font-size': font });
   const plateLabels = new Map();
@@ -126,6 +132,9 @@ export function createDrawing(model, plan) {
       ? h('li', null, h('span', { class: 'key key-ground' }), 'ground pivot (die body)')
       : null,
     actuated.size ? h('li', null, h('span', { class: 'key key-actuated' }), 'driven joint') : null,
+    (plan.findings ?? []).some((/** @type {any} */ f) => f.at_mm)
+      ? h('li', null, h('span', { class: 'key key-finding' }), 'finding at this line position')
+      : null,
   );
   const element = h('div', { class: 'drawing' }, svg, legend);
 
@@ -182,7 +191,24 @@ export function createDrawing(model, plan) {
     const near = nearestStation(model, pose.position);
     target.setAttribute('d', stationTargets[near] ?? '');
     targetLabel.textContent = `dashed: target of station ${near} (${fixed(model.stationPositions[near] ?? 0, 3)} m)`;
-    desc.textContent = describePose(pose);
+    const here = findingsAt(plan.findings ?? [], model.stationPositions, pose.position, toleranceM);
+    findingMarks.replaceChildren(
+      ...here.map((f) =>
+        s(
+          'circle',
+          {
+            class: `finding-mark severity-${f.severity}`,
+            cx: f.at[0],
+            cy: f.at[1],
+            r: pinR * 1.6,
+            'data-finding': f.finding,
+          },
+          s('title', null, f.code),
+        ),
+      ),
+    );
+    const notes = here.map((f) => `${f.code} at (${fixed(f.at[0], 1)}, ${fixed(f.at[1], 1)}) mm.`);
+    desc.textContent = [describePose(pose), ...(notes.length ? ['Findings here:', ...notes] : [])].join(' ');
   };
   const first = model.positions[0];
   if (first !== undefined) update(poseAt(model, first));

@@ -223,7 +223,7 @@ function setUpDrawing(section, model, plan, charts) {
   const last = model.positions[model.positions.length - 1] ?? first;
   const span = Math.max(last - first, 1e-6);
   const step = niceStep(span / 300);
-  const drawing = createDrawing(model, plan);
+  const drawing = createDrawing(model, plan, step);
   const slider = /** @type {HTMLInputElement} */ (
     h('input', {
       type: 'range',

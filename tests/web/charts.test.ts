@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { buildCharts, type Finding, findingMarker, findingPosition, limitsFor } from '../../src/web/lib/charts.js';
+import {
+  buildCharts,
+  type Finding,
+  findingMarker,
+  findingPosition,
+  findingsAt,
+  limitsFor,
+} from '../../src/web/lib/charts.js';
 import type { MotionModel } from '../../src/web/lib/motion-model.js';
 
 /** Three samples over 1 m, one rotary actuator, area and draw-down rising linearly. */
@@ -127,5 +134,28 @@ describe('a plan with nothing to plot', () => {
       series: { area_mm2: { positions: [], values: [], atStations: true } },
     };
     expect(buildCharts(empty, [])).toEqual([]);
+  });
+});
+
+describe('findings in the drawing', () => {
+  it('findingsAt gives the findings with a place in the die that hold at a line position: over their range, or near their station', () => {
+    const findings: Finding[] = [
+      { code: 'THIN_WALL', severity: 'error', station: 1, at_mm: [20, 4], message: 'thin' },
+      {
+        code: 'MOTION_THIN_WALL',
+        severity: 'warning',
+        position_m: 0.6,
+        to_position_m: 0.8,
+        at_mm: [21, 5],
+        message: 'thin along',
+      },
+      { code: 'WALL_RATIO', severity: 'warning', station: 1, message: 'no place' },
+    ];
+    const stations = [0, 0.5];
+    expect(findingsAt(findings, stations, 0.502, 0.005).map((f) => f.code)).toEqual(['THIN_WALL']);
+    expect(findingsAt(findings, stations, 0.51, 0.005)).toEqual([]);
+    expect(findingsAt(findings, stations, 0.7, 0.005)).toEqual([
+      { finding: 1, at: [21, 5], severity: 'warning', code: 'MOTION_THIN_WALL' },
+    ]);
   });
 });

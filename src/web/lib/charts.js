@@ -17,6 +17,7 @@ import { valueAt } from './motion-model.js';
  * @property {number} [to_position_m]  end of the line-position range it holds over, when it holds over one
  * @property {number} [value]
  * @property {number} [limit]
+ * @property {readonly [number, number]} [at_mm]  where in the die-body frame, mm
  * @property {string} message
  */
 
@@ -210,4 +211,26 @@ export function findingMarker(finding, index, charts, stationPositions) {
   const to = finding.to_position_m;
   if (to !== undefined && Number.isFinite(to) && to > x) marker.to = to;
   return { chart: chart.key, marker };
+}
+
+/**
+ * The findings that have a place in the die (`at_mm`) and hold at line position `x`: over their range
+ * (`position_m` to `to_position_m`), or within `toleranceM` of their one line position.
+ * @param {readonly Finding[]} findings
+ * @param {readonly number[]} stationPositions
+ * @param {number} x  line position, m
+ * @param {number} toleranceM
+ * @returns {{ finding: number, at: readonly [number, number], severity: Finding['severity'], code: string }[]}
+ */
+export function findingsAt(findings, stationPositions, x, toleranceM) {
+  const out = [];
+  for (const [index, f] of findings.entries()) {
+    if (!f.at_mm) continue;
+    const from = findingPosition(f, stationPositions);
+    if (from === null) continue;
+    const to = f.to_position_m !== undefined && f.to_position_m > from ? f.to_position_m : from;
+    if (x >= from - toleranceM && x <= to + toleranceM)
+      out.push({ finding: index, at: f.at_mm, severity: f.severity, code: f.code });
+  }
+  return out;
 }
