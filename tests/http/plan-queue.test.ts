@@ -82,6 +82,11 @@ describe('POST /v1/plans queues; GET shows the job, then the plan', () => {
     expect(csv.headers['content-disposition']).toBe('attachment; filename="edging-strip-demo-setpoints.csv"');
     expect(csv.headers['x-cautions']).toMatch(/HOT_MELT/);
     expect(csv.headers.link).toBe(`<${created.headers.location}>; rel="describedby"`);
+    // sent again from memory: the same bytes and headers
+    const again = await request(server()).get(`${created.headers.location}/setpoints.csv`);
+    expect(again.text).toBe(csv.text);
+    for (const h of ['content-type', 'content-disposition', 'etag', 'x-cautions'])
+      expect(again.headers[h]).toBe(csv.headers[h]);
     const rows = parse(csv.text) as string[][];
     expect(rows[0]!.slice(0, 3)).toEqual(['position_m', 'time_s', 'actuator_1_deg']);
     expect(rows.length).toBeGreaterThan(10);
