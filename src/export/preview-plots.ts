@@ -3,6 +3,7 @@ import { regionArea } from '../geometry/index.js';
 import { sampleTrajectory } from '../motion/index.js';
 import { toDegrees } from '../numeric/index.js';
 import type { Plan } from '../pipeline/index.js';
+import { formatNumber } from './format-number.js';
 
 /** One curve of a plot: points (line position m, value). */
 export interface PlotSeries {
@@ -74,6 +75,25 @@ export function previewPlots(plan: Plan, schedule: Schedule): PreviewPlots {
     }
     series.push({ label: 'station values', points: a.stationValues.map((v, i) => [x[i]!, v]), dots: true });
     plots.push({ title: `${a.id} (${a.kind}, joint ${a.joint})`, unit, series, limits: [] });
+    if (trajectory) {
+      // speed at the nominal line speed, against the schedule's actuator speed limit (both directions)
+      const rotary = a.kind === 'rotary';
+      const limit = rotary ? toDegrees(schedule.actuators.maxSpeedRadPerS) : schedule.actuators.maxSpeedMmPerS;
+      const points = Array.from({ length: PREVIEW_SAMPLES }, (_, j): [number, number] => {
+        const at = fromM + ((toM - fromM) * j) / (PREVIEW_SAMPLES - 1);
+        const v = sampleTrajectory(trajectory, at).velocityPerS;
+        return [at, rotary ? toDegrees(v) : v];
+      });
+      plots.push({
+        title: `${a.id} speed at the nominal line speed`,
+        unit: `${unit}/s`,
+        series: [{ label: 'speed', points, dots: false }],
+        limits: [
+          { label: `limit ${formatNumber(limit, 1)} ${unit}/s`, value: limit },
+          { label: `limit -${formatNumber(limit, 1)} ${unit}/s`, value: -limit },
+        ],
+      });
+    }
   });
   // the plan's simulation of the commanded motion, step by step, where it has one
   const simulation = plan.simulation ?? null;

@@ -43,13 +43,15 @@ describe('preview.svg of the demo plan', () => {
   });
 
   it('plots actuator_1, orifice area, draw-down with its limits and puller speed, labelled with units', () => {
-    expect(plots.plots.map((p) => p.unit)).toEqual(['deg', 'mm2', '-', 'm/min']);
+    expect(plots.plots.map((p) => p.unit)).toEqual(['deg', 'deg/s', 'mm2', '-', 'm/min']);
+    expect(textOf).toContain('limit 60.0 deg/s');
     expect(textOf).toContain('actuator_1 (rotary, joint pivot_0) (deg)');
     expect(textOf).toContain('orifice area (mm2)');
     expect(textOf).toContain('line position (m)');
     expect(textOf).toContain('max 1.3');
     expect(textOf).toContain('min 1');
-    expect(all(tree, 'line').filter((l) => l['@_class'] === 'limit')).toHaveLength(3);
+    // draw-down min and max, line speed, and the actuator speed limit both ways
+    expect(all(tree, 'line').filter((l) => l['@_class'] === 'limit')).toHaveLength(5);
   });
 
   it("the actuator curve passes through the plan's station values (cycloidal motion, rest at each station)", () => {
@@ -59,6 +61,20 @@ describe('preview.svg of the demo plan', () => {
       const near = curve.find((p) => Math.abs(p[0] - s.positionM) < 1e-9);
       expect(near?.[1]).toBeCloseTo(values[i]!, 9);
     });
+  });
+
+  it('the actuator speed curve peaks at 2h/T on each transition (cycloidal law, VDI 2143), below the 60 °/s limit', () => {
+    // cycloidal rest-to-rest: peak speed 2h/T, h the transition's rise, T its duration at the nominal line speed
+    const speed = plots.plots[1]!.series[0]!.points;
+    const values = plan.mechanism!.actuators[0]!.stationValues;
+    const v = schedule.process.lineSpeedMPerS;
+    const x = schedule.stations.map((s) => s.positionM);
+    const h = Math.abs(values[1]! - values[0]!);
+    const t = (x[1]! - x[0]!) / v;
+    const first = speed.filter((p) => p[0] >= x[0]! && p[0] <= x[1]!).map((p) => Math.abs(p[1]));
+    // sampled every 1.5 m / 240 = 6.25 mm of line: the sampled peak is within 0.5 % of the true one
+    expect(Math.max(...first)).toBeLessThanOrEqual((2 * h) / t + 1e-9);
+    expect(Math.max(...first)).toBeGreaterThan(0.995 * ((2 * h) / t));
   });
 
   it('marks the warnings that have a line position (the demo has draw-down and wall findings)', () => {
