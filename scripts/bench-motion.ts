@@ -69,5 +69,5 @@ console.log(
 );
 const sim = own.value;
 console.log(
-  `the plan's own simulation: ${sim?.positionsM.length} steps every ${sim?.timeStepS} s with walls at every ${sim?.wallStride}th step and the stations: ${own.ms.toFixed(0)} ms; the whole demo plan: ${planned.ms.toFixed(0)} ms`,
+  `the plan's own simulation: ${sim?.positionsM.length} steps every ${sim?.timeStepS} s with walls every ${sim?.wallStride} steps and at the stations: ${own.ms.toFixed(0)} ms; the whole demo plan: ${planned.ms.toFixed(0)} ms`,
 );

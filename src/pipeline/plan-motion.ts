@@ -1,5 +1,11 @@
 import type { Finding, Schedule } from '../domain/index.js';
-import { type ActuatorTrajectory, actuatorTrajectory, checkMotionLimits, type MotionLawName } from '../motion/index.js';
+import {
+  type ActuatorTrajectory,
+  actuatorTrajectory,
+  checkMotionLimits,
+  type MotionLawName,
+  metresPerMinute,
+} from '../motion/index.js';
 import { DEFAULT_TOLERANCES, toRadians } from '../numeric/index.js';
 import type { PlanMechanism } from './chain-mechanism.js';
 import { motionLimitFinding } from './motion-limit-finding.js';
@@ -68,7 +74,17 @@ export function planMotion(
       maxSpeedPerS: rotary ? schedule.actuators.maxSpeedRadPerS : schedule.actuators.maxSpeedMmPerS,
       maxAccelerationPerS2: rotary ? schedule.actuators.maxAccelRadPerS2 : schedule.actuators.maxAccelMmPerS2,
     });
-    for (const problem of check.problems) findings.push(motionLimitFinding(k, a.id, a.kind, problem));
+    for (const problem of check.problems) {
+      const f = motionLimitFinding(k, a.id, a.kind, problem);
+      findings.push(
+        checkSpeed === nominal
+          ? f
+          : {
+              ...f,
+              message: `${f.message} (Checked at the fastest puller speed, ${metresPerMinute(checkSpeed).toPrecision(3)} m/min, since the puller follows the orifice area: the line speed given is for the fastest stretch.)`,
+            },
+      );
+    }
     return trajectory;
   });
   return { motion: { law, timeStepS: schedule.timeStepS, trajectories }, findings };

@@ -100,3 +100,32 @@ describe('planMotion: a linear actuator (a slotted end) checked in mm/s', () => 
     expect(speed.message).toMatch(/run the line at 1\.5 m\/min or slower/);
   });
 });
+
+describe('planSchedule: actuator limits when the puller follows the area', () => {
+  it('are checked at the fastest puller speed: the peak speed is 2h/T with T = transition length / fastest puller speed (VDI 2143)', () => {
+    const demo = fixture('demo-edging-strip') as Record<string, Record<string, unknown>>;
+    const wire = {
+      ...demo,
+      // 60 kg/h is more than the demo's own (about 41 kg/h from its first station at 2 m/min), so the puller runs faster
+      process: { ...demo.process, puller_follows_area: true, throughput_kg_per_h: 60 },
+      actuators: { ...demo.actuators, max_speed_deg_per_s: 0.5 },
+    };
+    const mapping = toSchedule(wire as Parameters<typeof toSchedule>[0]);
+    if (!mapping.ok) throw new Error(JSON.stringify(mapping.problems));
+    const plan = planSchedule(mapping.schedule);
+    const fastest = Math.max(...plan.simulation!.pullerSpeedMPerS);
+    expect(fastest).toBeGreaterThan(mapping.schedule.process.lineSpeedMPerS);
+    const limits = plan.findings.filter((f) => f.code === 'ACTUATOR_LIMIT' && f.message.includes('peak speed'));
+    expect(limits.length).toBeGreaterThan(0);
+    const stationsM = mapping.schedule.stations.map((s) => s.positionM);
+    const values = plan.mechanism!.actuators[0]!.stationValues; // degrees
+    for (const f of limits) {
+      const i = stationsM.findIndex((x) => Math.abs(x - f.positionM!) < 1e-12);
+      const next = i + 1 < stationsM.length ? i + 1 : 0;
+      const length = (next === 0 ? stationsM[0]! + 1.5 : stationsM[next]!) - stationsM[i]!;
+      // cycloidal peak velocity 2h/T (VDI 2143 Blatt 1) at T = L / v_fastest
+      expect(f.value!).toBeCloseTo((2 * Math.abs(values[next]! - values[i]!)) / (length / fastest), 6);
+      expect(f.message).toMatch(/Checked at the fastest puller speed/);
+    }
+  });
+});
