@@ -313,6 +313,11 @@ function setUpDrawing(section, model, plan, charts) {
       play,
       h('label', { for: 'speed' }, 'Speed'),
       speed,
+      h(
+        'span',
+        { class: 'note' },
+        'Keys on the slider: arrows step, Page Up/Down jump, Home/End, Space plays and pauses.',
+      ),
     ),
     readout,
     jointTable,
@@ -338,7 +343,8 @@ function setUpDrawing(section, model, plan, charts) {
     slider.setAttribute('aria-valuetext', `${fixed(position, 3)} m${atStation ? `, station ${near}` : ''}`);
     if (document.activeElement !== number) number.value = fixed(position, 3).replace('−', '-');
     const acts = pose.actuators.map((a) => `${a.id} ${fixed(a.value, 2)} ${a.unit === 'deg' ? '°' : 'mm'}`).join(', ');
-    readout.textContent = `${fixed(position, 3)} m of line${atStation ? ` (station ${near})` : ''}${acts ? `: ${acts}` : ''}.`;
+    const time = model.clock ? `, ${fixed(valueAt(model.clock, position), 2)} s into the motion` : '';
+    readout.textContent = `${fixed(position, 3)} m of line${atStation ? ` (station ${near})` : ''}${time}${acts ? `: ${acts}` : ''}.`;
     readout.setAttribute('data-position', String(position));
     fill(
       jointRows,
@@ -376,6 +382,13 @@ function setUpDrawing(section, model, plan, charts) {
     show(x);
     frame = requestAnimationFrame(tick);
   };
+  slider.addEventListener('keydown', (event) => {
+    // Space or K on the slider plays and pauses, as the play button does
+    if (event.key === ' ' || event.key === 'k' || event.key === 'K') {
+      event.preventDefault();
+      play.click();
+    }
+  });
   play.addEventListener('click', () => {
     if (frame !== null) return stop();
     play.textContent = 'Pause';

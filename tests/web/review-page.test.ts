@@ -53,7 +53,11 @@ type Plan = {
   cautions: { code: string; hazard: string }[];
   mechanism: { joints: { id: string; station_positions: Point[] }[] };
 };
-type Motion = { position_m: number[]; joints: { id: string; positions_mm: Point[] }[] };
+type Motion = {
+  position_m: number[];
+  joints: { id: string; positions_mm: Point[] }[];
+  plates: { id: string; pivots: [string, string]; outline_local_mm: Point[] }[];
+};
 
 let app: Awaited<ReturnType<typeof buildApp>>;
 let base = '';
@@ -176,6 +180,21 @@ describe.skipIf(!hasChromium)(
       const a: Point = [Number(await plate.getAttribute('data-a-x')), Number(await plate.getAttribute('data-a-y'))];
       const pivot1 = await drawnPin('pivot_1');
       expect(Math.hypot(a[0] - pivot1[0], a[1] - pivot1[1])).toBeLessThan(1e-3);
+      if (motion) {
+        // its outline is the plan's own outline turned onto the pivot line (x from the first pivot to the second)
+        const b: Point = [Number(await plate.getAttribute('data-b-x')), Number(await plate.getAttribute('data-b-y'))];
+        const angle = Math.atan2(b[1] - a[1], b[0] - a[0]);
+        const local = motion.plates.find((p) => p.id === 'plate_2')!.outline_local_mm;
+        const drawn = ((await plate.getAttribute('points')) ?? '').split(' ').map((xy) => xy.split(',').map(Number));
+        expect(drawn).toHaveLength(local.length);
+        local.forEach(([lx, ly], i) => {
+          const want = [
+            a[0] + lx * Math.cos(angle) - ly * Math.sin(angle),
+            a[1] + lx * Math.sin(angle) + ly * Math.cos(angle),
+          ];
+          expect(Math.hypot(drawn[i]![0]! - want[0]!, drawn[i]![1]! - want[1]!)).toBeLessThan(2e-3);
+        });
+      }
     });
 
     it('the slider moves by keyboard, and the drawing’s description follows it', async () => {
@@ -206,6 +225,14 @@ describe.skipIf(!hasChromium)(
       expect(stopped).toBeGreaterThan(0.1);
       await page.waitForTimeout(200);
       expect(await shownPosition()).toBe(stopped);
+      // Space on the slider plays and pauses too
+      await page.locator('#position').focus();
+      await page.keyboard.press('Space');
+      await expect(play.getAttribute('aria-pressed')).resolves.toBe('true');
+      await page.waitForTimeout(300);
+      await page.keyboard.press('Space');
+      await expect(play.getAttribute('aria-pressed')).resolves.toBe('false');
+      expect(await shownPosition()).not.toBe(stopped);
     });
 
     it('findings are listed with their advice and marked on the charts; cautions stay on screen while scrolling', async () => {
