@@ -69,7 +69,7 @@ export const ERROR_CATALOGUE = Object.freeze({
   plan_too_large: {
     status: 422,
     meaning:
-      'The schedule is too large to plan inside one request: its station boundaries add up to more than the plan work limit (the chain fit grows with the boundary length of every station).',
+      'The schedule is too large for one plan: its station boundaries add up to more than the plan work limit (the chain fit grows with the boundary length of every station), which bounds how long a plan holds a worker.',
     fix: 'Send fewer stations (stations between which the profile changes little add little), or plan the schedule in parts; checks (`POST /v1/checks`) have no such limit.',
   },
   idempotency_conflict: {
