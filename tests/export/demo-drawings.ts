@@ -1,3 +1,4 @@
+import { spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import DxfParserModule, { type DxfParser as DxfParserClass, type IDxf, type IEntity } from 'dxf-parser';
 import { drawingModel } from '../../src/export/index.js';
@@ -65,4 +66,41 @@ export function isSimpleRing(ring: readonly (readonly [number, number])[]): bool
     }
   }
   return true;
+}
+
+/** Debian's python3-ezdxf under the system Python (not the first python3 on PATH). */
+export const SYSTEM_PYTHON = '/usr/bin/python3';
+
+/** True when /usr/bin/python3 can import ezdxf (Debian's python3-ezdxf; .ci/run installs it). */
+export const ezdxfAvailable = spawnSync(SYSTEM_PYTHON, ['-c', 'import ezdxf'], { stdio: 'ignore' }).status === 0;
+
+/** What ezdxf says of one file: audit errors and fixes with their messages, $INSUNITS, model-space entities. */
+export interface EzdxfAudit {
+  readonly errors: number;
+  readonly fixes: number;
+  readonly messages: string[];
+  readonly insunits: number;
+  readonly entities: number;
+}
+
+const AUDIT = `
+import json, sys, ezdxf
+out = {}
+for path in sys.argv[1:]:
+    doc = ezdxf.readfile(path)
+    auditor = doc.audit()
+    out[path] = {"errors": len(auditor.errors), "fixes": len(auditor.fixes),
+                 "messages": [e.message for e in auditor.errors] + [f.message for f in auditor.fixes],
+                 "insunits": doc.header.get("$INSUNITS"), "entities": len(doc.modelspace())}
+print(json.dumps(out))
+`;
+
+/**
+ * Reads every file with ezdxf (`ezdxf.readfile`), audits it (`doc.audit()`) and returns what it found per path;
+ * throws when ezdxf cannot read a file at all (the Python run fails).
+ */
+export function auditWithEzdxf(paths: readonly string[]): Record<string, EzdxfAudit> {
+  const run = spawnSync(SYSTEM_PYTHON, ['-c', AUDIT, ...paths], { encoding: 'utf8' });
+  if (run.status !== 0) throw new Error(`ezdxf could not read the drawings: ${run.stderr.slice(-500)}`);
+  return JSON.parse(run.stdout) as Record<string, EzdxfAudit>;
 }

@@ -334,6 +334,14 @@ describe('every drawing', () => {
     expect(writePartsSheetDxf(model, cold)).toBe(drawings['plates.dxf']);
   });
 
+  it('writes a schedule name with a line break and non-ASCII letters as one line of plain ASCII text', () => {
+    const odd = { ...model, scheduleName: 'strip\n1 – Ä' };
+    const dxf = readDxf(writePartsSheetDxf(odd, cold));
+    const list = entitiesOn<ITextEntity>(dxf, 'TEXT', 'parts-list').map((t) => t.text);
+    expect(list[0]).toContain('strip?1 - ?');
+    expect(entitiesOn(dxf, 'LWPOLYLINE', PART_LAYERS.outline)).toHaveLength(5);
+  });
+
   it('holds numbers with at most 6 decimals and no NaN or exponent', () => {
     for (const text of Object.values(drawings)) {
       expect(text).not.toMatch(/NaN|Infinity/);

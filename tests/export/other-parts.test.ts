@@ -1,3 +1,6 @@
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import type { ICircleEntity, ILineEntity, ILwpolylineEntity } from 'dxf-parser';
 import pc from 'polygon-clipping';
 import { describe, expect, it } from 'vitest';
@@ -17,7 +20,16 @@ import { processCautions } from '../../src/safety/index.js';
 import { findMovingSpans } from '../../src/span/index.js';
 import { fitChain, plateOutline, resolveChainFitOptions } from '../../src/synthesis/index.js';
 import { channelOrifice, closeChain, type P } from '../support/known-chain.js';
-import { entitiesOn, isSimpleRing, planDemo, readDxf, shoelace, type Xy } from './demo-drawings.js';
+import {
+  auditWithEzdxf,
+  entitiesOn,
+  ezdxfAvailable,
+  isSimpleRing,
+  planDemo,
+  readDxf,
+  shoelace,
+  type Xy,
+} from './demo-drawings.js';
 
 /**
  * A plan of the chain alone (no links, no actuators: what a plan shows when nothing drives its chain) fitted to
@@ -188,4 +200,43 @@ describe('a link pin near a plate edge sits in a boss', () => {
     expect(Math.abs(Math.abs(shoelace(bossed.outline as Xy[])) - area(expected))).toBeLessThanOrEqual(1e-3);
     expect(bossed.holes.map((h) => h.joint)).toEqual(['pivot_1', 'pivot_2', 'link_1_b']);
   });
+});
+
+describe('telescoping halves, slider blocks and slots pass the strict reader too', () => {
+  it.skipIf(!ezdxfAvailable)(
+    'ezdxf (Debian python3-ezdxf via /usr/bin/python3) audits the sheet, each part and the die body of both chain-only plans with no errors or fixes (skipped only when /usr/bin/python3 cannot import ezdxf)',
+    () => {
+      const dir = mkdtempSync(join(tmpdir(), 'drawings-'));
+      try {
+        const files: string[] = [];
+        for (const allow of [
+          { allowSlots: false, allowTelescoping: true },
+          { allowSlots: true, allowTelescoping: false },
+        ]) {
+          const { plan, schedule } = chainOnlyPlan(allow);
+          const made = drawingModel(plan, schedule);
+          if (!made.ok) throw new Error(made.reason);
+          const cold = thermalScale('cold', schedule.process.dieTemperatureC);
+          const tag = allow.allowSlots ? 'slot' : 'telescoping';
+          const write = (name: string, text: string) => {
+            const path = join(dir, `${tag}-${name}.dxf`);
+            writeFileSync(path, text);
+            files.push(path);
+          };
+          write('plates', writePartsSheetDxf(made.model, cold));
+          write('die-body', writeDieBodyDxf(made.model, cold));
+          for (const part of made.model.stations[0]!.parts) write(part.id, writePartDxf(made.model, part.id, cold)!);
+        }
+        const report = auditWithEzdxf(files);
+        for (const path of files) {
+          expect(report[path]!.messages, path).toEqual([]);
+          expect(report[path]!.errors + report[path]!.fixes).toBe(0);
+          // Autodesk DXF reference, HEADER section: $INSUNITS 4 = millimetres
+          expect(report[path]!.insunits).toBe(4);
+        }
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  );
 });

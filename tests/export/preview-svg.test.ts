@@ -92,6 +92,13 @@ describe('preview.svg of the demo plan', () => {
     for (const c of plan.cautions) expect(textOf).toContain(c.hazard);
   });
 
+  it('a schedule name with markup, quotes, a line break and non-ASCII letters still gives well-formed XML', () => {
+    const odd = { ...model, scheduleName: 'strip <B> & "C"\nÄ' };
+    const text = writePreviewSvg(odd, plots);
+    expect(XMLValidator.validate(text)).toBe(true);
+    expect(text).toContain('strip &lt;B&gt; &amp; &quot;C&quot;');
+  });
+
   it('is the same bytes when written again', () => {
     expect(writePreviewSvg(model, previewPlots(plan, schedule))).toBe(svg);
   });
