@@ -197,6 +197,25 @@ describe.skipIf(!hasChromium)(
       }
     });
 
+    it('without the sampled motion (404) the page draws from the stations, every pin still where the plan puts it', async () => {
+      const tab = await browser.newPage({ viewport: { width: 1024, height: 800 } });
+      await tab.route('**/motion.json', (route) => route.fulfill({ status: 404, body: '{}' }));
+      await tab.goto(`${base}/plans/${plan.id}`);
+      await tab.locator('#position').waitFor({ timeout: 30_000 });
+      await expect(tab.locator('section.card:has(#drawing-title-h) p.note').first().textContent()).resolves.toContain(
+        'Drawn from the plan’s stations',
+      );
+      const station = plan.stations[2]!;
+      await tab.locator('#position').fill(String(station.position_m));
+      for (const joint of plan.mechanism.joints) {
+        const pin = tab.locator(`circle[data-joint="${joint.id}"]`);
+        const drawn = [Number(await pin.getAttribute('data-x')), Number(await pin.getAttribute('data-y'))];
+        const want = joint.station_positions[2]!;
+        expect(Math.hypot(drawn[0]! - want[0], drawn[1]! - want[1]), joint.id).toBeLessThan(TOLERANCE_MM);
+      }
+      await tab.close();
+    });
+
     it('the slider moves by keyboard, and the drawing’s description follows it', async () => {
       const slider = page.locator('#position');
       await slider.focus();
