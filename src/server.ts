@@ -11,7 +11,16 @@ try {
   process.exit(2);
 }
 const logger = createLogger(config.logLevel);
-const store = new SqlitePlanStore(config.databasePath);
+let store: SqlitePlanStore;
+try {
+  store = new SqlitePlanStore(config.databasePath);
+} catch (err) {
+  logger.fatal(
+    { database: config.databasePath, reason: err instanceof Error ? err.message : String(err) },
+    'cannot open the plan store: check DATABASE_PATH and that its directory is writable',
+  );
+  process.exit(1);
+}
 const app = await buildApp({
   logger,
   store,
