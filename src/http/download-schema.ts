@@ -39,6 +39,11 @@ export const SetpointsWire = z
       .describe(
         'true: the puller speed follows the orifice area to hold the target draw-down and the rows are timed by it (process.puller_follows_area)',
       ),
+    motion: z
+      .enum(['law', 'tracked'])
+      .describe(
+        'law: actuator values by the motion law; tracked: the direct-mode values that follow the morph between station shapes (?motion=tracked)',
+      ),
     rows: z
       .array(z.array(z.number()))
       .describe(
@@ -66,6 +71,16 @@ export const CamTableQuery = z.object({
     .string()
     .optional()
     .describe('number of master positions, an integer 2–10001; default 101 (else 400 malformed_request)'),
+});
+
+/** `?motion=law|tracked` of the setpoint table. */
+export const SetpointsQuery = z.object({
+  motion: z
+    .string()
+    .optional()
+    .describe(
+      'law (default): actuator values by the motion law; tracked: in direct mode (one actuator per chain degree of freedom, no links), the values found by least squares at every simulation step to follow the morph between station shapes (409 no_motion for other plans; else 400 malformed_request)',
+    ),
 });
 
 export const PlanIdParams = z.object({ id: z.string().describe('plan id from POST /v1/plans') });

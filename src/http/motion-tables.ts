@@ -40,10 +40,15 @@ export function setpointRowCount(motion: PlanMotion, simulation: PlanSimulation 
 /**
  * The setpoint table: `position_m,time_s,actuator_<n>_deg|_mm…`, then, when the plan was simulated,
  * `puller_speed_m_per_min,orifice_area_mm2,draw_down_ratio`; one row per time step over one repeat (periodic) or from
- * the first to the last station (`planSetpoints`), every number through `formatNumber`.
+ * the first to the last station (`planSetpoints`), every number through `formatNumber`. `tracked`: the direct-mode
+ * values that follow the morph between station shapes instead of the motion law's.
  */
-export function setpointTableText(motion: PlanMotion, simulation: PlanSimulation | null): MotionTableText {
-  const table = planSetpoints(motion, simulation);
+export function setpointTableText(
+  motion: PlanMotion,
+  simulation: PlanSimulation | null,
+  tracked = false,
+): MotionTableText {
+  const table = planSetpoints(motion, simulation, { tracked });
   const units = motion.trajectories.map(unitOf);
   const process = table.process;
   const columns = [

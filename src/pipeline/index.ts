@@ -27,6 +27,7 @@ export {
   type PullerTable,
   planSetpoints,
   pullerTable,
+  type SetpointSettings,
   setpointRowCount,
 } from './plan-tables.js';
 export { MAX_FRAMES, type PlanFrameParts, type PlanFrames, planFrames } from './plan-frames.js';

@@ -56,7 +56,11 @@ export function brokenRuns(
  * `MOTION_TRANSMISSION_ANGLE`, `MOTION_CLEARANCE`; and one `MOTION_SIMULATED` note saying what was simulated (steps,
  * time step, wall stride, the fastest plate tip, the puller's range when it follows the area).
  */
-export function simulationFindings(sim: PlanSimulation, schedule: Schedule): Finding[] {
+export function simulationFindings(
+  sim: PlanSimulation,
+  schedule: Schedule,
+  kinds: readonly ('rotary' | 'linear')[] = [],
+): Finding[] {
   const x = sim.positionsM;
   const { limits } = schedule;
   const stepM = sim.timeStepS * schedule.process.lineSpeedMPerS;
@@ -242,20 +246,41 @@ export function simulationFindings(sim: PlanSimulation, schedule: Schedule): Fin
       `Parts overlap by ${fmt(-sim.clearanceMm[run.worst]!)} mm ${range}: ${sim.clearanceParts[run.worst]} (room ${strideNote}). Give one part another layer or move the link.`,
   );
   findings.push(summary(sim, schedule, strideNote));
-  if (sim.tracking) findings.push(trackingNote(sim));
+  if (sim.tracking) findings.push(trackingNote(sim, kinds, schedule));
   return findings;
 }
 
 /** `MOTION_TRACKED`: how far the law's motion and the tracked motion stray from the morph between stations. */
-function trackingNote(sim: PlanSimulation): Finding {
+function trackingNote(sim: PlanSimulation, kinds: readonly ('rotary' | 'linear')[], schedule: Schedule): Finding {
   const t = sim.tracking!;
   const law = Math.max(0, ...t.lawResidualMm);
   const tracked = Math.max(0, ...t.residualMm);
+  // the tracked values' speeds by differences over the steps, against the actuators' limits
+  const over: string[] = [];
+  t.actuatorValues.forEach((series, k) => {
+    let peak = 0;
+    for (let j = 1; j < series.length; j++) {
+      const dt = sim.timesS[j]! - sim.timesS[j - 1]!;
+      if (dt > 0) peak = Math.max(peak, Math.abs(series[j]! - series[j - 1]!) / dt);
+    }
+    const rotary = kinds[k] !== 'linear';
+    const limit = rotary ? schedule.actuators.maxSpeedRadPerS : schedule.actuators.maxSpeedMmPerS;
+    if (peak > limit) {
+      const scale = rotary ? 180 / Math.PI : 1;
+      over.push(
+        `actuator ${k + 1} peaks at ${fmt(peak * scale)} ${rotary ? '°/s' : 'mm/s'} (limit ${fmt(limit * scale)})`,
+      );
+    }
+  });
+  const limits =
+    over.length > 0
+      ? ` Tracked, ${over.join('; ')}: lengthen the transitions or slow the line before using the tracked table.`
+      : ' The tracked values stay within the actuators’ speed limits.';
   return {
     code: 'MOTION_TRACKED',
-    severity: 'info',
+    severity: over.length > 0 ? 'warning' : 'info',
     value: tracked,
-    message: `Direct mode: every actuator drives a chain joint, so the intermediate shapes can follow the morph between the station shapes (each pivot blended between its stations by the motion law's weight). With the motion law's values the pivots stray up to ${fmt(law)} mm (RMS over the pivots) from it; with actuator values found by least squares at every step, up to ${fmt(tracked)} mm. The setpoint tables follow the motion law; the tracked values are in the plan's simulation.`,
+    message: `Direct mode: every actuator drives a chain joint, so the intermediate shapes can follow the morph between the station shapes (each pivot blended between its stations by the motion law's weight). With the motion law's values the pivots stray up to ${fmt(law)} mm (RMS over the pivots) from it; with actuator values found by least squares at every step, up to ${fmt(tracked)} mm (setpoints.csv?motion=tracked).${limits}`,
   };
 }
 

@@ -281,7 +281,8 @@ function finish(
     if (fastest > schedule.process.lineSpeedMPerS)
       moved = planMotion(schedule, mechanism, { limitLineSpeedMPerS: fastest });
   }
-  const simulated = simulation ? simulationFindings(simulation, schedule) : [];
+  const kinds = mechanism.actuators.map((a) => a.kind);
+  const simulated = simulation ? simulationFindings(simulation, schedule, kinds) : [];
   return {
     status: meetsRequest ? 'done' : 'incomplete',
     error: null,

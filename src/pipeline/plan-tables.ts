@@ -28,6 +28,15 @@ export interface ProcessColumns {
   readonly drawDownRatio: readonly number[];
 }
 
+/** Which actuator values a setpoint table carries. */
+export interface SetpointSettings {
+  /**
+   * True: the direct-mode values that track the morph between station shapes (`trackMorph`), linear between the
+   * simulation's steps; throws when the plan has none. @default false: the motion law's values
+   */
+  readonly tracked?: boolean;
+}
+
 /** Rows the setpoint table of a plan would have (to refuse a huge table before building it). */
 export function setpointRowCount(motion: PlanMotion, simulation: PlanSimulation | null): number {
   const base = motion.trajectories[0]!.timeBase;
@@ -44,9 +53,14 @@ export function setpointRowCount(motion: PlanMotion, simulation: PlanSimulation 
  * linear interpolation, so position, time and puller speed agree. The process columns come from the simulation: the
  * orifice area linear between its steps, and from it the puller speed (nominal, or holding the target draw-down),
  * the product area and the draw-down, so that ρ_solid · A_product · v = ṁ on every row (mass balance). A periodic
- * table's last row repeats the first row's values exactly.
+ * table's last row repeats the first row's values exactly. With `settings.tracked` the actuator columns are the
+ * direct-mode tracked values instead of the law's.
  */
-export function planSetpoints(motion: PlanMotion, simulation: PlanSimulation | null): PlanSetpoints {
+export function planSetpoints(
+  motion: PlanMotion,
+  simulation: PlanSimulation | null,
+  settings: SetpointSettings = {},
+): PlanSetpoints {
   if (!simulation) {
     const table = setpointTable(motion.trajectories, motion.timeStepS);
     return { ...table, process: null };
@@ -62,7 +76,16 @@ export function planSetpoints(motion: PlanMotion, simulation: PlanSimulation | n
     positionsM = [...table.positionsM];
     timesS = [...table.timesS];
   }
-  const values = motion.trajectories.map((t) => column(t, positionsM, base.periodic));
+  const tracking = settings.tracked ? simulation.tracking : null;
+  if (settings.tracked && !tracking)
+    throw new Error('planSetpoints: the plan has no tracked motion (direct mode only)');
+  const values = tracking
+    ? tracking.actuatorValues.map((series) => {
+        const out = positionsM.map((x) => interpolate(simulation.positionsM, series, x));
+        if (base.periodic) out[out.length - 1] = out[0]!;
+        return out;
+      })
+    : motion.trajectories.map((t) => column(t, positionsM, base.periodic));
   return {
     positionsM,
     timesS,

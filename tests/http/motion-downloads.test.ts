@@ -1,6 +1,8 @@
 import { parse } from 'csv-parse/sync';
 import request from 'supertest';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { E, freeStations, WIDTH } from '../mechanise/known-linkage.js';
+import { channelOrifice } from '../support/known-chain.js';
 import { fixture, useTestApp } from '../support/test-app.js';
 
 const testApp = useTestApp();
@@ -248,5 +250,60 @@ describe('motion_law on the wire', () => {
       .send(JSON.stringify({ ...demo(), motion_law: 'sine' }));
     expect(res.status).toBe(400);
     expect(res.body.details.map((d: { path: string }) => d.path)).toContain('motion_law');
+  });
+});
+
+describe('setpoints?motion=tracked (direct mode follows the morph between station shapes)', () => {
+  it('a plan with a binary link has no tracked motion (409 no_motion); an unknown motion is 400', async () => {
+    const id = await planId(demo());
+    const res = await get(`/v1/plans/${id}/setpoints.csv?motion=tracked`);
+    expect(res.status).toBe(409);
+    expect(res.body.error).toBe('no_motion');
+    const bad = await get(`/v1/plans/${id}/setpoints.json?motion=smooth`);
+    expect(bad.status).toBe(400);
+    expect(bad.body.error).toBe('malformed_request');
+    expect(bad.body.details[0].path).toBe('motion');
+  });
+
+  it('a 4-plate chain driven directly by 2 actuators gives tracked setpoints that pass through the station values', async () => {
+    // stations of a known 4-plate chain pinned at both ends (two free plate angles each): 4 − 2 = 2 degrees of
+    // freedom (Grübler–Kutzbach), so 2 actuators drive it directly, without links
+    const pivots = freeStations([
+      [0.35, 0.0],
+      [0.2, -0.1],
+      [0.45, 0.1],
+    ]);
+    const id = await planId({
+      name: 'direct-chain',
+      stations: pivots.map((p, i) => ({ position_m: i * 0.2, orifice: channelOrifice(p, E, WIDTH, 0.25) })),
+      limits: { fit_tolerance_mm: 0.1 },
+      plates: { pivot_hole_diameter_mm: 4, ligament_mm: 3, depth_mm: 25 },
+      actuators: { count: 2 },
+      time_step_s: 0.1,
+    });
+    const plan = (await get(`/v1/plans/${id}`)).body;
+    expect(plan.mechanisation.mode).toBe('direct');
+    expect(plan.simulation.tracking.tracked_max_residual_mm).toBeLessThanOrEqual(
+      plan.simulation.tracking.law_max_residual_mm,
+    );
+    const res = await get(`/v1/plans/${id}/setpoints.csv?motion=tracked`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-disposition']).toBe('attachment; filename="direct-chain-tracked-setpoints.csv"');
+    const tracked = readCsv(res.text);
+    const law = readCsv((await get(`/v1/plans/${id}/setpoints.csv`)).text);
+    expect(tracked.header).toEqual(law.header);
+    expect(tracked.rows.map((r) => r[0])).toEqual(law.rows.map((r) => r[0]));
+    const json = (await get(`/v1/plans/${id}/setpoints.json?motion=tracked`)).body;
+    expect(json.motion).toBe('tracked');
+    expect(json.rows).toEqual(tracked.rows);
+    // at the stations (0, 0.2, 0.4 m) the chain sits in the station's shape, so both tables give the station values
+    const stations: { station_values: number[] }[] = plan.mechanism.actuators;
+    [0, 0.2, 0.4].forEach((x, i) => {
+      const row = tracked.rows.find((r) => Math.abs(r[0]! - x) < 1e-9)!;
+      stations.forEach((a, k) => expect(row[2 + k]!).toBeCloseTo(a.station_values[i]!, 2));
+    });
+    // between them the tracked values differ from the law's: they follow the morph, not the law's joint angles
+    const gap = Math.max(...tracked.rows.map((r, i) => Math.abs(r[2]! - law.rows[i]![2]!)));
+    expect(gap).toBeGreaterThan(1e-3);
   });
 });

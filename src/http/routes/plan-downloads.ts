@@ -9,6 +9,7 @@ import {
   MotionViewWire,
   PlanIdParams,
   PullerTableWire,
+  SetpointsQuery,
   SetpointsWire,
 } from '../download-schema.js';
 import { type ErrorCode, errorBody } from '../error-catalogue.js';
@@ -60,7 +61,15 @@ export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
       }
       return { record, motion, simulation: record.plan.simulation ?? null };
     };
-    const setpoints = (found: Found, requestId: string): MotionTableText | Refusal => {
+    const setpoints = (found: Found, requestId: string, tracked = false): MotionTableText | Refusal => {
+      if (tracked && !found.simulation?.tracking) {
+        return refuse(
+          'no_motion',
+          409,
+          `Plan ${found.record.id} has no tracked motion: only a mechanism driven directly (one actuator per degree of freedom of the chain, no links) can follow the morph between station shapes. Download the setpoints without ?motion=tracked.`,
+          requestId,
+        );
+      }
       const count = setpointRowCount(found.motion, found.simulation);
       if (count > MAX_SETPOINT_ROWS) {
         return refuse(
@@ -70,7 +79,7 @@ export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
           requestId,
         );
       }
-      return setpointTableText(found.motion, found.simulation);
+      return setpointTableText(found.motion, found.simulation, tracked);
     };
     const simulated = (found: Found, requestId: string): PlanSimulation | Refusal =>
       found.simulation ??
@@ -103,6 +112,15 @@ export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
       ]),
       request_id: requestId,
     });
+    /** `?motion=`: true for tracked, false for the law's values, null when the value is not one of them. */
+    const trackedOf = (raw: string | undefined): boolean | null =>
+      raw === undefined || raw === 'law' ? false : raw === 'tracked' ? true : null;
+    const badMotion = (raw: string, requestId: string) => ({
+      ...errorBody('malformed_request', `motion=${raw.slice(0, 20)} is neither law nor tracked.`, [
+        { path: 'motion', message: 'law (the motion law, default) or tracked (direct mode only)' },
+      ]),
+      request_id: requestId,
+    });
     const csvHeaders = (found: Found, suffix: string) => ({
       'content-type': 'text/csv; charset=utf-8',
       'content-disposition': `attachment; filename="${downloadName(found.record.schedule.name, suffix)}"`,
@@ -118,16 +136,20 @@ export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
             'Header `position_m,time_s,actuator_<n>_deg` (rotary) or `actuator_<n>_mm` (linear), one row per `time_step_s` over one repeat (periodic) or from the first to the last station; numbers with 9 decimals and a "." decimal point. 409 `no_motion` when the plan has no actuators.',
           tags: ['downloads'],
           params: PlanIdParams,
+          querystring: SetpointsQuery,
           produces: ['text/csv'],
           response: csvResponse,
         },
       },
       async (request, reply) => {
+        const tracked = trackedOf(request.query.motion);
+        if (tracked === null) return reply.code(400).send(badMotion(request.query.motion ?? '', request.id));
         const found = find(request.params.id, request.id);
         if ('status' in found) return reply.code(found.status).send(found.body);
-        const table = setpoints(found, request.id);
+        const table = setpoints(found, request.id, tracked);
         if ('status' in table) return reply.code(table.status).send(table.body);
-        return reply.headers(csvHeaders(found, 'setpoints.csv')).send(writeCsv(table.columns, table.rows));
+        const name = tracked ? 'tracked-setpoints.csv' : 'setpoints.csv';
+        return reply.headers(csvHeaders(found, name)).send(writeCsv(table.columns, table.rows));
       },
     );
     app.get(
@@ -137,18 +159,22 @@ export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
           summary: 'Actuator setpoints per time step, as JSON with units, law and cautions',
           tags: ['downloads'],
           params: PlanIdParams,
-          response: { 200: SetpointsWire, 404: ErrorWire, 409: ErrorWire },
+          querystring: SetpointsQuery,
+          response: { 200: SetpointsWire, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire },
         },
       },
       async (request, reply) => {
+        const tracked = trackedOf(request.query.motion);
+        if (tracked === null) return reply.code(400).send(badMotion(request.query.motion ?? '', request.id));
         const found = find(request.params.id, request.id);
         if ('status' in found) return reply.code(found.status).send(found.body);
-        const table = setpoints(found, request.id);
+        const table = setpoints(found, request.id, tracked);
         if ('status' in table) return reply.code(table.status).send(table.body);
         return {
           ...meta(found, table, SETPOINT_INTERPOLATION),
           time_step_s: found.motion.timeStepS,
           puller_follows_area: found.simulation?.pullerFollowsArea ?? false,
+          motion: tracked ? ('tracked' as const) : ('law' as const),
           rows: numbers(table),
         };
       },
