@@ -16,6 +16,9 @@ export interface WorkerPoolOptions {
   readonly maxCheckQueue?: number;
 }
 
+/** Heap limit of one worker thread, MiB (the demo plans in well under 200). */
+export const WORKER_HEAP_MB = 2048;
+
 /** Thrown by `check` when too many checks wait already. */
 export class PoolBusyError extends Error {
   constructor() {
@@ -44,6 +47,8 @@ export class WorkerPool {
       // workers yield the CPU to the service thread (Linux thread niceness, through @napi-rs/nice where present),
       // so /healthz and reads stay fast on a machine whose cores the plans fill
       niceIncrement: 10,
+      // a plan that runs away with memory ends its own thread (and is retried, then failed), not the service
+      resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
     });
   }
 
