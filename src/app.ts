@@ -50,6 +50,8 @@ export interface AppOptions {
   readonly planHardLimitS?: number;
   /** On close, how long running plans may finish before they are queued again for the next start, ms. @default 0 */
   readonly shutdownGraceMs?: number;
+  /** Start the worker threads with the app (the service) or when first needed (tests). @default true */
+  readonly warmWorkers?: boolean;
   /** API tokens; none: every route is open (server.ts then listens on loopback only). @default [] */
   readonly apiTokens?: readonly ApiToken[];
 }
@@ -149,7 +151,7 @@ export async function buildApp(options: AppOptions) {
   const store = options.store ?? new SqlitePlanStore(':memory:');
   const planWorkers = options.planWorkers ?? 1;
   const planTimeLimitS = options.planTimeLimitS ?? 20;
-  const pool = new WorkerPool({ planThreads: planWorkers });
+  const pool = new WorkerPool({ planThreads: planWorkers, warm: options.warmWorkers !== false });
   const jobs = new PlanJobs({
     store,
     pool,

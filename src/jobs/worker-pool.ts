@@ -14,6 +14,8 @@ export interface WorkerPoolOptions {
   readonly checkThreads?: number;
   /** Checks that may wait for a thread; more are refused (503). @default 64 */
   readonly maxCheckQueue?: number;
+  /** Start every thread at once (the service), or each when first needed (tests, short-lived tools). @default true */
+  readonly warm?: boolean;
 }
 
 /** Heap limit of one worker thread, MiB (the demo plans in well under 200). */
@@ -35,13 +37,14 @@ export class WorkerPool {
   private readonly piscina: Piscina;
   private readonly maxCheckQueue: number;
   private waitingChecks = 0;
+  private closed = false;
 
   constructor(options: WorkerPoolOptions) {
     const threads = options.planThreads + (options.checkThreads ?? 1);
     this.maxCheckQueue = options.maxCheckQueue ?? 64;
     this.piscina = new Piscina({
       filename: fileURLToPath(new URL('./worker-entry.mjs', import.meta.url)),
-      minThreads: threads,
+      minThreads: options.warm === false ? 0 : threads,
       maxThreads: threads,
       idleTimeout: 60_000,
       // workers yield the CPU to the service thread (Linux thread niceness, through @napi-rs/nice where present),
@@ -80,12 +83,18 @@ export class WorkerPool {
     }
   }
 
-  /** Threads alive; 0 before they start or after close. */
+  /** Threads alive now (fewer than the pool's size before they are first needed). */
   get threads(): number {
     return this.piscina.threads.length;
   }
 
+  /** True until `close`. */
+  get open(): boolean {
+    return !this.closed;
+  }
+
   async close(): Promise<void> {
+    this.closed = true;
     await this.piscina.close({ force: true });
   }
 }

@@ -15,7 +15,8 @@ export interface TestAppOptions extends Partial<AppOptions> {
 /** The app as server.ts builds it (in-memory store, one plan worker), with a silent logger, ready for supertest. */
 export async function makeTestApp(options: TestAppOptions = {}) {
   const { settlePlans = true, ...rest } = options;
-  const app = await buildApp({ logger: pino({ level: 'silent' }), ...rest });
+  // worker threads start when a test first needs one
+  const app = await buildApp({ logger: pino({ level: 'silent' }), warmWorkers: false, ...rest });
   if (settlePlans) {
     app.addHook('onSend', async (request, reply, payload) => {
       if (request.method !== 'POST' || request.routeOptions.url !== '/v1/plans' || reply.statusCode !== 202) {

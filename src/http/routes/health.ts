@@ -10,7 +10,7 @@ export const ReadyWire = z
     status: z.enum(['ready', 'not_ready']),
     version: z.string(),
     store: z.enum(['ok', 'unavailable']).describe('the plan store answers a query'),
-    workers: z.number().int().describe('worker threads alive'),
+    workers: z.number().int().describe('worker threads alive now'),
     accepting_plans: z.boolean().describe('the plan queue takes plans (false while shutting down)'),
     plans_queued: z.number().int(),
     plans_running: z.number().int(),
@@ -56,7 +56,7 @@ export function healthRoutes({ store, jobs, pool, config }: HealthDeps): Fastify
           storeOk = false;
         }
         const workers = pool.threads;
-        const ready = storeOk && workers > 0 && jobs.accepts;
+        const ready = storeOk && pool.open && jobs.accepts;
         return reply.code(ready ? 200 : 503).send({
           status: ready ? ('ready' as const) : ('not_ready' as const),
           version: SERVICE_VERSION,
