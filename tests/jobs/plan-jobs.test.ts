@@ -97,7 +97,7 @@ describe('PlanJobs', () => {
     await until(() => store.entry(id)?.status === 'running');
     const started = Date.now();
     expect(await jobs.cancel(id)).toBe(true);
-    expect(Date.now() - started).toBeLessThan(2000);
+    expect(Date.now() - started).toBeLessThan(5000);
     expect(jobs.active).toBe(0);
     expect(store.report(id)).toBeUndefined();
     await jobs.drain(0);
