@@ -271,10 +271,20 @@ function finish(
   }
   const meetsRequest = all.length === 0;
   let moved = planMotion(schedule, mechanism);
-  const simulation =
-    moved.motion && mechanisation.status === 'mechanised'
-      ? simulatePlan({ schedule, check, fit, mechanisation, motion: moved.motion })
-      : null;
+  let simulation: PlanSimulation | null = null;
+  const unsimulated: Finding[] = [];
+  if (moved.motion && mechanisation.status === 'mechanised') {
+    try {
+      simulation = simulatePlan({ schedule, check, fit, mechanisation, motion: moved.motion });
+    } catch (err) {
+      // the plan stands without its simulation, and says why (the stations themselves were checked)
+      unsimulated.push({
+        code: 'MOTION_NOT_SIMULATED',
+        severity: 'warning',
+        message: `The motion between stations could not be simulated (${err instanceof Error ? err.message : String(err)}), so nothing between the stations was checked and the puller-speed table and motion.json are not available. Please report the schedule.`,
+      });
+    }
+  }
   if (simulation?.pullerFollowsArea) {
     // the actuators keep their values per metre of line, so a faster puller moves them faster: check at the fastest
     const fastest = Math.max(...simulation.pullerSpeedMPerS.filter(Number.isFinite));
@@ -282,7 +292,7 @@ function finish(
       moved = planMotion(schedule, mechanism, { limitLineSpeedMPerS: fastest });
   }
   const kinds = mechanism.actuators.map((a) => a.kind);
-  const simulated = simulation ? simulationFindings(simulation, schedule, kinds) : [];
+  const simulated = simulation ? simulationFindings(simulation, schedule, kinds) : unsimulated;
   return {
     status: meetsRequest ? 'done' : 'incomplete',
     error: null,

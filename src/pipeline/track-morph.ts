@@ -32,7 +32,7 @@ export function trackMorph(
   stationPivots: readonly (readonly Point[])[],
   positionsM: readonly number[],
 ): MorphTracking {
-  const { mechanism, trajectories, pivots, stations } = input;
+  const { mechanism, trajectories, pivots } = input;
   const solver = createPositionSolver(mechanism);
   const d = trajectories.length;
   const law = restToRestLaw(trajectories[0]!.law);

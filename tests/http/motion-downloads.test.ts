@@ -300,7 +300,9 @@ describe('setpoints?motion=tracked (direct mode follows the morph between statio
     const stations: { station_values: number[] }[] = plan.mechanism.actuators;
     [0, 0.2, 0.4].forEach((x, i) => {
       const row = tracked.rows.find((r) => Math.abs(r[0]! - x) < 1e-9)!;
-      stations.forEach((a, k) => expect(row[2 + k]!).toBeCloseTo(a.station_values[i]!, 2));
+      stations.forEach((a, k) => {
+        expect(row[2 + k]!).toBeCloseTo(a.station_values[i]!, 2);
+      });
     });
     // between them the tracked values differ from the law's: they follow the morph, not the law's joint angles
     const gap = Math.max(...tracked.rows.map((r, i) => Math.abs(r[2]! - law.rows[i]![2]!)));

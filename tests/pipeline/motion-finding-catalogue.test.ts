@@ -7,7 +7,12 @@ describe('findings catalogue: the motion stage', () => {
   it('api-spec/errors.md lists every finding code the motion simulation and the motion check emit', () => {
     const doc = read('api-spec/errors.md');
     const found = new Set<string>();
-    for (const file of ['src/pipeline/motion-findings.ts', 'src/pipeline/motion-limit-finding.ts']) {
+    const files = [
+      'src/pipeline/motion-findings.ts',
+      'src/pipeline/motion-limit-finding.ts',
+      'src/pipeline/plan-schedule.ts',
+    ];
+    for (const file of files) {
       for (const match of read(file).matchAll(/'((?:MOTION|ACTUATOR)_[A-Z_]+)'/g)) found.add(match[1]!);
     }
     // the simulation's own codes and the transition limit check

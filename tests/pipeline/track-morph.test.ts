@@ -41,7 +41,9 @@ describe('trackMorph: direct mode follows the morph between station shapes', () 
   });
 
   it('the tracked residual is never above the law’s, and both vanish at the stations', () => {
-    tracking.residualMm.forEach((r, j) => expect(r).toBeLessThanOrEqual(tracking.lawResidualMm[j]! + 1e-12));
+    tracking.residualMm.forEach((r, j) => {
+      expect(r).toBeLessThanOrEqual(tracking.lawResidualMm[j]! + 1e-12);
+    });
     for (const j of sim.stationSteps) {
       expect(tracking.residualMm[j]!).toBeLessThan(1e-2);
       expect(tracking.lawResidualMm[j]!).toBeLessThan(1e-2);
