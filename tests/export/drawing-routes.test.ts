@@ -90,7 +90,12 @@ describe('drawing downloads of the demo plan', () => {
     const one = await get(`/v1/plans/${id}/plates/plate_1.dxf`);
     const two = await get(`/v1/plans/${id}/plates/plate_2.dxf`);
     expect(one.headers.etag).toBeDefined();
-    expect(two.headers.etag).not.toBe(one.headers.etag);
+    // the download gate keys ETags (and its download cache) by the resource: it must be the path asked for
+    // (plates/plate_2.dxf), not the route pattern (plates/:part.dxf), or every part answers with the first one cached
+    expect(
+      two.headers.etag,
+      'downloadOf in src/app.ts must name the resource by the request path, not routeOptions.url',
+    ).not.toBe(one.headers.etag);
     const asked = await get(`/v1/plans/${id}/plates/plate_2.dxf`).set('if-none-match', one.headers.etag as string);
     expect(asked.status).toBe(200);
     expect(asked.body).toBe(two.body);
