@@ -126,7 +126,8 @@ export type DrawingRefusal = { readonly ok: false; readonly reason: string };
  * clearance model draws it, and the plate's cut outline is widened by it. Links are capsules of half width e round
  * their pin line (the clearance model's steel width). Telescoping halves: each a straight plate of the pair's shortest
  * station length from its own pivot (the clipping treats the pair as one plate whose length changes). Slider blocks:
- * 4e long along the slot, 2e wide, round their pin. Null-free: refuses a plan without a mechanism.
+ * 4e long along the slot, 2e wide, round their pin. A plan that failed (no fitted chain, no mechanism) is refused
+ * with its reason.
  */
 export function drawingModel(
   plan: Plan,
