@@ -308,8 +308,7 @@ export async function buildApp(options: AppOptions) {
     return route.startsWith(DOWNLOAD_PREFIX) && reads ? route.slice(DOWNLOAD_PREFIX.length) : null;
   };
   app.addHook('preHandler', async (request, reply) => {
-    const resource = downloadOf(request);
-    if (resource === null) return;
+    if (downloadOf(request) === null) return;
     const id = (request.params as { id?: string }).id ?? '';
     const entry = store.entry(id);
     if (!entry) return send(reply, request.id, 'not_found', `No plan with id ${id}.`);
@@ -322,8 +321,9 @@ export async function buildApp(options: AppOptions) {
         `Plan ${id} is ${entry.status}: its downloads exist once it is finished. GET /v1/plans/${id} shows its progress.`,
       );
     }
-    const query = request.url.includes('?') ? request.url.slice(request.url.indexOf('?')) : '';
-    const etag = planEtag(entry, `${resource}${query}`);
+    // the resource as asked for (path and query), not the route's pattern: each part of plates/{part}.dxf is its own
+    const asked = request.url.slice(request.url.indexOf('/', '/v1/plans/'.length) + 1);
+    const etag = planEtag(entry, asked);
     reply.header('link', `</v1/plans/${id}>; rel="describedby"`);
     if (etag) {
       reply.header('etag', etag);
