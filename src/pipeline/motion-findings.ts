@@ -66,6 +66,12 @@ export function simulationFindings(
   const stepM = sim.timeStepS * schedule.process.lineSpeedMPerS;
   const strideNote = `measured every ${sim.wallStride} step(s) (about ${fmt(stepM * sim.wallStride)} m) and at every station`;
   const findings: Finding[] = [];
+  /** The stations inside a run: their own check already reports the same limit there. */
+  const alsoAtStations = (run: BrokenRun): string => {
+    const inside = sim.stationSteps.flatMap((j, i) => (j >= run.from && j <= run.to ? [i] : []));
+    if (inside.length === 0) return ' Every station meets this limit: only the motion between them breaks it.';
+    return ` Station(s) ${inside.join(', ')} inside this range break it too (see their own findings).`;
+  };
   const add = (
     code: string,
     severity: Finding['severity'],
@@ -86,7 +92,7 @@ export function simulationFindings(
         value: value(run.worst),
         ...(limit !== undefined ? { limit } : {}),
         ...(at?.(run.worst) ? { at: at(run.worst)! } : {}),
-        message: text(run, rangeText(x[run.from]!, x[run.to]!, schedule)) + more,
+        message: text(run, rangeText(x[run.from]!, x[run.to]!, schedule)) + alsoAtStations(run) + more,
       });
     });
   };
@@ -316,12 +322,12 @@ function rangeText(fromM: number, toM: number, schedule: Schedule): string {
 
 /** Which stations a range lies between, in words (empty when it spans more than one transition). */
 function between(fromM: number, toM: number, schedule: Schedule): string {
+  // the simulation's positions run from the first station over one repeat (or to the last station), unwrapped
   const s = schedule.stations;
   const first = s[0]!.positionM;
   const repeat = schedule.repeatLengthM;
-  const wrap = (v: number) => (repeat === null ? v : first + ((((v - first) % repeat) + repeat) % repeat));
-  const a = wrap(fromM);
-  const b = wrap(toM);
+  const a = fromM;
+  const b = toM;
   for (let i = 0; i < s.length; i++) {
     const lo = s[i]!.positionM;
     const last = i === s.length - 1;
