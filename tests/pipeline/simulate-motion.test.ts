@@ -149,6 +149,7 @@ describe('simulateMotion: leaks between valid stations', () => {
     expect(leak.positionM!).toBeGreaterThan(0);
     expect(leak.toPositionM!).toBeLessThan(1);
     expect(leak.message).toMatch(/from [\d.]+ m to [\d.]+ m of line \(between stations 0 and 1\)/);
+    expect(leak.message).toMatch(/Every station meets this limit: only the motion between them breaks it\./);
   });
 });
 
@@ -231,6 +232,8 @@ describe('simulatePlan on the demo (fixtures/demo-edging-strip.json)', () => {
       if (to < sim.positionsM.length - 1) expect(sim.drawDownRatio[to + 1]!).toBeLessThanOrEqual(1.3);
       expect(f.value).toBeCloseTo(Math.max(...sim.drawDownRatio.slice(from, to + 1)), 12);
       expect(f.message).toMatch(/^Draw-down [\d.]+ above 1\.3 from [\d.]+ m to [\d.]+ m of line/);
+      // the demo's stations 1–3 break it on their own (DRAW_DOWN_HIGH), and the message says so
+      expect(f.message).toMatch(/Station\(s\) [\d, ]+ inside this range break it too/);
     }
     expect(plan.findings.some((f) => f.code === 'MOTION_SIMULATED')).toBe(true);
   });
