@@ -37,9 +37,11 @@ const ENTRY_COLUMNS = `p.id, p.created_at, p.name, p.schedule_hash, p.status, p.
   p.started_at, p.finished_at, p.error, r.plan_hash`;
 
 /** Decoded finished plans kept in memory, so repeated downloads of one plan do not parse it again. */
-const RECORD_CACHE_SIZE = 32;
+const RECORD_CACHE_SIZE = 8;
 /** Finished plans' entries and reports kept in memory (they never change), so reading a plan touches no disk. */
 const FINISHED_CACHE_SIZE = 256;
+/** Most characters of reports kept in memory (about 32 MiB of ASCII); a larger report is read from disk each time. */
+const REPORT_CACHE_CHARS = 32 * 1024 * 1024;
 
 /**
  * Plans in one SQLite file (better-sqlite3, synchronous): write-ahead log, full sync, foreign keys, schema versions in
@@ -50,6 +52,7 @@ export class SqlitePlanStore implements PlanStore {
   private readonly cache = new Map<string, PlanRecord>();
   private readonly finishedEntries = new Map<string, PlanEntry>();
   private readonly reports = new Map<string, string>();
+  private reportChars = 0;
   private readonly statements;
 
   constructor(path: string) {
@@ -168,7 +171,14 @@ export class SqlitePlanStore implements PlanStore {
     const known = this.reports.get(id);
     if (known !== undefined) return known;
     const json = (this.statements.report.get(id) as { json: string } | undefined)?.json;
-    if (json !== undefined) remember(this.reports, id, json, FINISHED_CACHE_SIZE);
+    if (json === undefined || json.length > REPORT_CACHE_CHARS / 8) return json;
+    this.reports.set(id, json);
+    this.reportChars += json.length;
+    while (this.reports.size > FINISHED_CACHE_SIZE || this.reportChars > REPORT_CACHE_CHARS) {
+      const oldest = this.reports.keys().next().value!;
+      this.reportChars -= this.reports.get(oldest)!.length;
+      this.reports.delete(oldest);
+    }
     return json;
   }
 
@@ -223,6 +233,7 @@ export class SqlitePlanStore implements PlanStore {
   delete(id: string): boolean {
     this.cache.delete(id);
     this.finishedEntries.delete(id);
+    this.reportChars -= this.reports.get(id)?.length ?? 0;
     this.reports.delete(id);
     return this.db.transaction(() => {
       const row = this.statements.scheduleOf.get(id) as { hash: string } | undefined;
