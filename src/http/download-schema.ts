@@ -163,6 +163,16 @@ export const MotionViewWire = z
     draw_down_ratio: SeriesWire('area draw-down ratio, orifice over product'),
     puller_speed_m_per_min: SeriesWire('puller speed, m/min'),
     die_pressure_ratio: SeriesWire('die-land pressure over the first station’s at constant throughput'),
+    limits: z
+      .object({
+        draw_down_ratio: z
+          .object({ min: z.number(), max: z.number() })
+          .describe('the schedule’s draw-down range (limits.draw_down)'),
+        die_pressure_ratio: z
+          .object({ max: z.number() })
+          .describe('the rise of the die-land pressure over the first station’s that MOTION_PRESSURE_RISE flags'),
+      })
+      .describe('the limits the series are held to, drawn on the review page’s charts whether or not they are broken'),
     findings: z.array(FindingWire).describe('the plan’s findings (MOTION_… ones carry position_m … to_position_m)'),
     cautions: z.array(CautionWire).describe('process-safety cautions'),
   })

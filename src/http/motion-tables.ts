@@ -1,11 +1,12 @@
 import { formatNumber } from '../export/index.js';
 import { type ActuatorTrajectory, camTable, metresPerMinute } from '../motion/index.js';
 import { toDegrees } from '../numeric/index.js';
-import type { Caution, Finding } from '../domain/index.js';
+import type { Caution, Finding, Limits } from '../domain/index.js';
 import type { MotionView } from './download-schema.js';
 import { toCautionWire, toFindingWire } from './to-check-report.js';
 import { mm, pointMm, roundTo, sig } from './wire-format.js';
 import {
+  MOTION_PRESSURE_RISE_RATIO,
   type PlanFrameParts,
   planFrames,
   type PlanMotion,
@@ -165,6 +166,7 @@ export function motionView(
   parts: PlanFrameParts,
   findings: readonly Finding[],
   cautions: readonly Caution[],
+  limits: Pick<Limits, 'drawDownMin' | 'drawDownMax'>,
 ): MotionView {
   const frames = planFrames(parts);
   return {
@@ -188,6 +190,10 @@ export function motionView(
     draw_down_ratio: finiteOr(frames.drawDownRatio, (x) => sig(x)),
     puller_speed_m_per_min: finiteOr(frames.pullerSpeedMPerS.map(metresPerMinute), (x) => sig(x)),
     die_pressure_ratio: finiteOr(frames.diePressureRatio, (x) => sig(x)),
+    limits: {
+      draw_down_ratio: { min: sig(limits.drawDownMin), max: sig(limits.drawDownMax) },
+      die_pressure_ratio: { max: MOTION_PRESSURE_RISE_RATIO },
+    },
     findings: findings.map(toFindingWire),
     cautions: cautions.map(toCautionWire),
   };

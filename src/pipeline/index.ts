@@ -19,7 +19,7 @@ export {
   neighbours,
   simulateMotion,
 } from './simulate-motion.js';
-export { brokenRuns, simulationFindings } from './motion-findings.js';
+export { brokenRuns, MOTION_PRESSURE_RISE_RATIO, simulationFindings } from './motion-findings.js';
 export {
   interpolate,
   type PlanSetpoints,

@@ -96,7 +96,7 @@ async function render(plan) {
   );
   const model = await loadModel(plan);
   const findings = plan.findings ?? [];
-  const charts = buildCharts(model, findings);
+  const charts = buildCharts(model, findings, model.limits);
 
   const drawingSection = h('section', { 'aria-labelledby': 'drawing-title-h', class: 'card' });
   const chartsSection = h(

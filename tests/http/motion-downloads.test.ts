@@ -123,6 +123,15 @@ describe('motion.json for the review page', () => {
     view = res.body;
   });
 
+  it('carries the schedule’s draw-down range and the pressure-rise limit, so the page draws them unbroken', () => {
+    // the demo schedule's limits.draw_down as posted (fixtures/demo-edging-strip.json), not a default
+    const posted = demo() as unknown as { limits: { draw_down: { min: number; max: number } } };
+    expect(view.limits).toEqual({
+      draw_down_ratio: { min: posted.limits.draw_down.min, max: posted.limits.draw_down.max },
+      die_pressure_ratio: { max: 1.5 },
+    });
+  });
+
   it('has exactly the agreed fields, one value per frame in every series, at most 2000 frames', () => {
     expect(Object.keys(view).sort()).toEqual(
       [
@@ -137,6 +146,7 @@ describe('motion.json for the review page', () => {
         'draw_down_ratio',
         'puller_speed_m_per_min',
         'die_pressure_ratio',
+        'limits',
         'findings',
         'cautions',
       ].sort(),

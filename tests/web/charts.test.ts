@@ -28,6 +28,7 @@ function model(): MotionModel {
       draw_down_ratio: { positions, values: [1.1, 1.32, 1.1], atStations: false },
     },
     fraction: null,
+    limits: {},
   };
 }
 

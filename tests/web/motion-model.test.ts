@@ -89,6 +89,12 @@ describe('line position → pose', () => {
     expect(poseAt(model, 3).position).toBe(1);
   });
 
+  it('modelFromMotion keeps the limits motion.json states, so the charts draw them when nothing breaks them', () => {
+    const limits = { draw_down_ratio: { min: 1, max: 1.3 }, die_pressure_ratio: { max: 1.5 } };
+    expect(modelFromMotion({ ...crankMotion(10), limits }, crankPlan).limits).toEqual(limits);
+    expect(modelFromMotion(crankMotion(10), crankPlan).limits).toEqual({});
+  });
+
   it('poseAt places the plate outline on its pivots: at 90° of the crank the 10×4 plate stands upright, left of its pivot line', () => {
     const model = modelFromMotion(crankMotion(10), crankPlan);
     const plate = poseAt(model, 1).plates[0]!;

@@ -309,6 +309,7 @@ export function planDownloadRoutes(store: PlanStore): FastifyPluginAsyncZod {
           { fit: plan.fit, mechanisation: plan.mechanisation, motion: found.motion, simulation },
           plan.findings,
           plan.cautions,
+          found.record.schedule.limits,
         );
       },
     );

@@ -28,6 +28,8 @@ import { barOutline, lerpPoint, placeOutline, regionArea } from './geometry.js';
  * @property {Record<string, Curve & { atStations: boolean }>} series  process figures against line position
  * @property {Curve | null} fraction  between stations (source 'stations'): the curve whose share of its change from
  *   one station to the next moves the joints along (the first actuator that moves); null: in proportion to position
+ * @property {Record<string, { min?: number, max?: number }>} limits  limits the series are held to, by series key
+ *   (from motion.json; empty when drawn from the stations)
  */
 
 /**
@@ -176,6 +178,7 @@ function stationShare(model, index, t, x) {
  * @property {number[]} draw_down_ratio
  * @property {number[]} puller_speed_m_per_min
  * @property {number[]} die_pressure_ratio
+ * @property {Record<string, { min?: number, max?: number }>} [limits]
  */
 
 /** Process figures of motion.json the page plots, by key. */
@@ -232,6 +235,7 @@ export function modelFromMotion(motion, plan) {
     })),
     series,
     fraction: null,
+    limits: motion.limits ?? {},
   };
 }
 
@@ -357,6 +361,7 @@ export function modelFromStations(plan, setpoints) {
       },
     },
     fraction: moving && moving.curve.positions.length > stationPositions.length ? moving.curve : null,
+    limits: {},
   };
 }
 
