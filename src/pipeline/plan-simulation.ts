@@ -105,13 +105,12 @@ export function simulatePlan(parts: PlanSimulationParts): PlanSimulation | null 
   if (!input) return null;
   const { schedule, check, motion } = parts;
   const base = motion.trajectories[0]!.timeBase;
-  let grid = stepGrid(base, motion.timeStepS);
-  let timeStepS = motion.timeStepS;
-  const capped = grid.timesS.length > MAX_SIMULATION_STEPS;
-  if (capped) {
-    timeStepS = grid.durationS / (MAX_SIMULATION_STEPS - 1);
-    grid = stepGrid(base, timeStepS);
-  }
+  // a grid far finer than the cap is never built: a 1 ms step over a long repeat has more steps than stepGrid allows
+  const durationS = base.spanM / base.lineSpeedMPerS;
+  const fine = durationS / motion.timeStepS > MAX_SIMULATION_STEPS ? null : stepGrid(base, motion.timeStepS);
+  const capped = fine === null || fine.timesS.length > MAX_SIMULATION_STEPS;
+  const timeStepS = capped ? durationS / (MAX_SIMULATION_STEPS - 1) : motion.timeStepS;
+  const grid = capped ? stepGrid(base, timeStepS) : fine!;
   // every station is a step, so the stations' shapes are measured exactly where the schedule asks for them
   const positions = [...grid.positionsM];
   for (const s of schedule.stations) positions.push(s.positionM);
