@@ -50,9 +50,14 @@ export const StationCheckWire = z.object({
       }),
     )
     .describe('walls thinner than limits.min_wall_mm'),
-  draw_down_ratio: z.number().describe('AREA draw-down ratio A_orifice / A_product at the nominal line speed'),
+  puller_speed_m_per_min: z
+    .number()
+    .describe(
+      'puller speed this station is evaluated at: the nominal line speed, or with process.puller_follows_area the speed that holds target_draw_down here (puller_speed_for_target_m_per_min)',
+    ),
+  draw_down_ratio: z.number().describe('AREA draw-down ratio A_orifice / A_product at puller_speed_m_per_min'),
   velocity_draw_ratio: z.number().describe('v_puller / v_melt = draw_down_ratio · ρ_melt / ρ_solid'),
-  product_area_mm2: z.number().describe('product cross-section at the nominal line speed'),
+  product_area_mm2: z.number().describe('product cross-section at puller_speed_m_per_min'),
   melt_speed_m_per_min: z.number().describe('mean melt speed in the orifice'),
   puller_speed_for_target_m_per_min: z.number().describe('puller speed that holds target_draw_down here'),
   swollen_area_mm2: z.number().describe('area after free die swell, area · die_swell² (isotropic swell)'),
@@ -81,6 +86,11 @@ export const CheckReportWire = z.object({
   throughput_kg_per_h: z.number(),
   throughput_source: z.enum(['request', 'first_station']),
   target_draw_down: z.number().describe('middle of limits.draw_down; the puller table holds it'),
+  puller_follows_area: z
+    .boolean()
+    .describe(
+      'process.puller_follows_area: true when every station is evaluated at the puller speed that holds target_draw_down (so its draw-down is the target, and the puller speed is checked instead); false: at the nominal line speed',
+    ),
   stations: z.array(StationCheckWire),
   findings: z.array(FindingWire),
   cautions: z.array(CautionWire),

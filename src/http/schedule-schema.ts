@@ -193,7 +193,7 @@ export const ProcessWire = z
       .boolean({ error: 'puller_follows_area must be true or false' })
       .optional()
       .describe(
-        'true: the puller-speed table of a plan follows the orifice area along the motion so the draw-down stays at the middle of the draw-down range at constant throughput (ṁ = ρ·A·v), and the setpoint table is timed by that speed; false: the puller runs at line_speed_m_per_min; default false',
+        'true: the puller speed follows the orifice area so the draw-down stays at the middle of the draw-down range at constant throughput (ṁ = ρ·A·v): the station checks (POST /v1/checks and a plan’s stations) take each station at that speed and check the speed instead of the draw-down, a plan’s puller-speed table follows it along the motion, and the setpoint table is timed by it; false: the puller runs at line_speed_m_per_min; default false',
       ),
   })
   .describe('process data; every value defaults from the material preset');

@@ -12,6 +12,7 @@ export function toCheckReport(schedule: Schedule, check: ScheduleCheck): CheckRe
     throughput_kg_per_h: sig(check.throughputKgPerS * 3600),
     throughput_source: check.throughputFromFirstStation ? 'first_station' : 'request',
     target_draw_down: sig(check.targetDrawDown),
+    puller_follows_area: schedule.process.pullerFollowsArea === true,
     stations: check.stations.map((s) => ({
       index: s.index,
       position_m: s.positionM,
@@ -28,6 +29,7 @@ export function toCheckReport(schedule: Schedule, check: ScheduleCheck): CheckRe
         area_mm2: mm(t.areaMm2),
         bbox_mm: { min: pointMm([t.bbox.minX, t.bbox.minY]), max: pointMm([t.bbox.maxX, t.bbox.maxY]) },
       })),
+      puller_speed_m_per_min: sig(s.process.pullerSpeedMPerS * 60),
       draw_down_ratio: sig(s.process.drawDownRatio),
       velocity_draw_ratio: sig(s.process.velocityDrawRatio),
       product_area_mm2: mm(s.process.productAreaMm2),

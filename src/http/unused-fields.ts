@@ -29,7 +29,6 @@ const PLAN_ONLY: readonly string[] = [
   'time_step_s',
   'repeat_length_m',
   'motion_law',
-  'process.puller_follows_area',
 ];
 
 /**

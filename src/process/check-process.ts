@@ -22,11 +22,16 @@ export interface StationMeasures {
 
 /** Process figures of one station. Speeds m/s, areas mm², pressure bar. */
 export interface StationProcess {
-  /** Product cross-section at the nominal line speed, mm². */
+  /**
+   * Puller speed this station is evaluated at, m/s: the nominal line speed, or, when the puller follows the area
+   * (`process.pullerFollowsArea`), the speed that holds the target draw-down here (`pullerSpeedForTargetMPerS`).
+   */
+  readonly pullerSpeedMPerS: number;
+  /** Product cross-section at `pullerSpeedMPerS`, mm². */
   readonly productAreaMm2: number;
-  /** Area draw-down ratio A_orifice/A_product at the nominal line speed. */
+  /** Area draw-down ratio A_orifice/A_product at `pullerSpeedMPerS`. */
   readonly drawDownRatio: number;
-  /** Velocity draw ratio v_puller/v_melt at the nominal line speed. */
+  /** Velocity draw ratio v_puller/v_melt at `pullerSpeedMPerS`. */
   readonly velocityDrawRatio: number;
   /** Mean melt speed in the orifice, m/s. */
   readonly meltSpeedMPerS: number;
@@ -51,6 +56,8 @@ export interface ProcessCheck {
   readonly throughputFromFirstStation: boolean;
   /** Middle of the draw-down range, the puller table's target. */
   readonly targetDrawDown: number;
+  /** True when each station is evaluated at the puller speed that holds the target draw-down there. */
+  readonly pullerFollowsArea: boolean;
   readonly stations: readonly StationProcess[];
   readonly findings: readonly Finding[];
 }
@@ -69,7 +76,10 @@ export const FLOW_IMBALANCE_LIMIT = 5;
 
 /**
  * Mass balance, draw-down, slit-flow balance and pressure per station, with findings. Throughput is the schedule's,
- * or the one that gives the first station the target draw-down at the nominal line speed.
+ * or the one that gives the first station the target draw-down at the nominal line speed. Each station's draw-down is
+ * taken at the nominal line speed, or, when the puller follows the area (`process.pullerFollowsArea`), at the puller
+ * speed that holds the target draw-down there at that throughput (ṁ = ρ·A·v, docs/MODEL.md §3): the draw-down is then
+ * the target, and the puller speed is flagged instead where it leaves the plausible range (`PULLER_SPEED_OUT_OF_RANGE`).
  *
  * @param measures  one entry per station, in schedule order.
  */
@@ -81,7 +91,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
   const throughputKgPerS =
     p.throughputKgPerS ??
     (first ? throughputForDrawDown(first.areaMm2, targetDrawDown, p.solidDensityKgPerM3, p.lineSpeedMPerS) : 0);
-  const productArea = productAreaMm2(throughputKgPerS, p.solidDensityKgPerM3, p.lineSpeedMPerS);
+  const follows = p.pullerFollowsArea === true;
   const scale = scaleFindings(schedule, measures);
   // A station drawn at the wrong scale gets its scale finding only: walls, draw-down and pressure figured from it
   // would bury the one message that matters (the scale finding says so).
@@ -96,6 +106,10 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     const station = schedule.stations[i]!;
     const at = { station: i, positionM: station.positionM };
     const own: Finding[] = [];
+    const pullerSpeed = pullerSpeedForDrawDown(throughputKgPerS, p.solidDensityKgPerM3, m.areaMm2, targetDrawDown);
+    // an orifice of no area has no speed to follow (its scale finding says why); it is evaluated at the line speed
+    const runSpeed = follows && m.areaMm2 > 0 ? pullerSpeed : p.lineSpeedMPerS;
+    const productArea = productAreaMm2(throughputKgPerS, p.solidDensityKgPerM3, runSpeed);
     const adr = areaDrawDownRatio(m.areaMm2, productArea);
     const equivalentGapMm = (2 * m.areaMm2) / m.perimeterMm;
     const widthMm = m.perimeterMm / 2;
@@ -105,7 +119,6 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     const wallRatio = m.maxWallMm / m.minWallMm;
     const flowImbalanceRatio = slitFlowRatioAtEqualPressure(m.maxWallMm, m.minWallMm, p.powerLawN);
     const wallPressureRatio = slitPressureRatioAtEqualFlow(m.maxWallMm, m.minWallMm, p.powerLawN);
-    const pullerSpeed = pullerSpeedForDrawDown(throughputKgPerS, p.solidDensityKgPerM3, m.areaMm2, targetDrawDown);
 
     if (m.minWallMm < limits.minWallMm) {
       const where = m.thinWalls[0]?.centroid ?? m.minWallAt;
@@ -147,7 +160,23 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
         ...at,
         value: adr,
         limit: low ? limits.drawDownMin : limits.drawDownMax,
-        message: `At the nominal line speed the area draw-down ratio is ${fmt(adr)}, ${low ? 'below' : 'above'} the ${fmt(low ? limits.drawDownMin : limits.drawDownMax)} limit. The puller-speed table holds ${fmt(targetDrawDown)} by running at ${fmt(pullerSpeed * 60)} m/min here; otherwise change the orifice area or the throughput.`,
+        message: `At ${follows ? 'the puller speed that follows the area' : 'the nominal line speed'} the area draw-down ratio is ${fmt(adr)}, ${low ? 'below' : 'above'} the ${fmt(low ? limits.drawDownMin : limits.drawDownMax)} limit. The puller-speed table holds ${fmt(targetDrawDown)} by running at ${fmt(pullerSpeed * 60)} m/min here; otherwise change the orifice area or the throughput.`,
+      });
+    }
+    const pullerMPerMin = pullerSpeed * 60;
+    if (
+      follows &&
+      (pullerMPerMin < PLAUSIBLE.minPullerSpeedMPerMin || pullerMPerMin > PLAUSIBLE.maxPullerSpeedMPerMin)
+    ) {
+      const slow = pullerMPerMin < PLAUSIBLE.minPullerSpeedMPerMin;
+      const limit = slow ? PLAUSIBLE.minPullerSpeedMPerMin : PLAUSIBLE.maxPullerSpeedMPerMin;
+      own.push({
+        code: 'PULLER_SPEED_OUT_OF_RANGE',
+        severity: 'warning',
+        ...at,
+        value: pullerMPerMin,
+        limit,
+        message: `To hold draw-down ${fmt(targetDrawDown)} here the puller would run at ${fmt(pullerMPerMin)} m/min, ${slow ? 'below' : 'above'} the ${fmt(limit)} m/min a profile puller plausibly runs at (the range line_speed_m_per_min accepts; common practice, no source). Change the throughput or the orifice area, or let the puller run at the line speed (process.puller_follows_area false) and accept the draw-down findings.`,
       });
     }
     if (landPressureBar > PLAUSIBLE.maxLandPressureBar) {
@@ -171,6 +200,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     }
     if (!misScaled.has(i)) findings.push(...own);
     return {
+      pullerSpeedMPerS: runSpeed,
       productAreaMm2: productArea,
       drawDownRatio: adr,
       velocityDrawRatio: velocityDrawRatio(adr, p.meltDensityKgPerM3, p.solidDensityKgPerM3),
@@ -189,6 +219,7 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     throughputKgPerS,
     throughputFromFirstStation: p.throughputKgPerS === null,
     targetDrawDown,
+    pullerFollowsArea: follows,
     stations,
     findings,
   };

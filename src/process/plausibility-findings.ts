@@ -23,6 +23,12 @@ export const PLAUSIBLE = Object.freeze({
    * its range (common practice, no source).
    */
   maxLandPressureBar: 1000,
+  /**
+   * Slowest and fastest puller speed, m/min, checked when the puller follows the orifice area: the range the schedule
+   * accepts for `line_speed_m_per_min` (profile and pipe pullers; common practice, no source).
+   */
+  minPullerSpeedMPerMin: 0.01,
+  maxPullerSpeedMPerMin: 200,
 });
 
 /** What the plausibility checks read of one station: area mm², extent mm (longer bounding-box side). */
