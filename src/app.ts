@@ -15,6 +15,7 @@ import {
 import type { Logger } from 'pino';
 import type { ApiToken } from './config.js';
 import { ApiTokens, type Principal } from './http/api-tokens.js';
+import { clientErrorAnswer } from './http/client-error-answer.js';
 import { completeOpenapi, openapiInfo, registerComponentSchemas } from './http/build-openapi.js';
 import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './http/error-catalogue.js';
 import { downloadName } from './http/motion-tables.js';
@@ -115,6 +116,9 @@ export async function buildApp(options: AppOptions) {
     // secure-json-parse's defaults, stated: a body with a __proto__ or constructor.prototype key is refused (400)
     onProtoPoisoning: 'error',
     onConstructorPoisoning: 'error',
+    // errors Node's HTTP parser meets before there is a request (a request not in within requestTimeout, headers too
+    // large, bytes that are not HTTP) are answered in the catalogue's shape too, then the connection is closed
+    clientErrorHandler: clientErrorAnswer(timeouts.requestMs, (fields, message) => options.logger.debug(fields, message)),
     // errors the router raises before any route (a broken percent-escape, an over-long id) speak the catalogue too
     frameworkErrors: (error, request, frameworkReply) => {
       frameworkReply.header('x-request-id', request.id);

@@ -19,6 +19,17 @@ export const ERROR_CATALOGUE = Object.freeze({
       'The request itself cannot be read: a URL with a broken percent-escape, or a body that does not match its Content-Length.',
     fix: 'Percent-encode the URL properly (e.g. `%20`, not `%zz`) and let the HTTP client set Content-Length.',
   },
+  request_timeout: {
+    status: 408,
+    meaning:
+      'The request (headers and body) did not arrive completely within 30 s; the connection is closed without reading more.',
+    fix: 'Send the whole request at once (the body is at most 5 MiB); over a slow link, resample dense outlines first.',
+  },
+  headers_too_large: {
+    status: 431,
+    meaning: 'The request headers exceed 16 KiB in all; the connection is closed.',
+    fix: 'Send fewer or shorter headers: a bearer token and an Idempotency-Key (at most 128 characters) fit easily.',
+  },
   unsupported_media_type: {
     status: 415,
     meaning: 'The request body is not JSON.',

@@ -345,8 +345,9 @@ describe('every error through the catalogue, with request_id', () => {
   });
 });
 
-describe('timeouts', () => {
-  it('a client that never finishes its request is answered 408 and let go once requestTimeout passes', async () => {
+describe('timeouts and requests the HTTP parser refuses', () => {
+  /** Sends raw bytes to a fresh app with a 300 ms request timeout; resolves with all it answered before closing. */
+  async function rawAnswer(bytes: string): Promise<{ text: string; waitedMs: number }> {
     const slow = await buildApp({
       logger: pino({ level: 'silent' }),
       timeouts: { requestMs: 300, connectionMs: 1000 },
@@ -354,11 +355,9 @@ describe('timeouts', () => {
     await slow.listen({ host: '127.0.0.1', port: 0 });
     const { port } = slow.server.address() as { port: number };
     const started = performance.now();
-    const answer = await new Promise<string>((resolve, reject) => {
+    const text = await new Promise<string>((resolve, reject) => {
       const socket = connect(port, '127.0.0.1', () => {
-        socket.write(
-          'POST /v1/checks HTTP/1.1\r\nHost: x\r\nContent-Type: application/json\r\nContent-Length: 100\r\n\r\n{"st',
-        );
+        socket.write(bytes);
       });
       let got = '';
       socket.on('data', (d) => {
@@ -367,10 +366,60 @@ describe('timeouts', () => {
       socket.on('close', () => resolve(got));
       socket.on('error', reject);
     });
-    const waited = performance.now() - started;
+    const waitedMs = performance.now() - started;
     await slow.close();
-    // Node's HTTP server answers a request that outlives requestTimeout itself (no JSON body) and closes
-    expect(answer).toMatch(/^HTTP\/1\.1 408/);
-    expect(waited).toBeLessThan(5000);
+    return { text, waitedMs };
+  }
+
+  /** The status line, the headers (names lower-cased) and the JSON body of a raw HTTP answer. */
+  function readAnswer(text: string) {
+    const [head = '', body = ''] = text.split('\r\n\r\n');
+    const [statusLine = '', ...lines] = head.split('\r\n');
+    const headers = Object.fromEntries(
+      lines.map((l) => [l.slice(0, l.indexOf(':')).toLowerCase(), l.slice(l.indexOf(':') + 1).trim()]),
+    );
+    return { status: Number(statusLine.split(' ')[1]), headers, body: JSON.parse(body) };
+  }
+
+  it('a client that never finishes its request is answered 408 request_timeout from the catalogue and let go', async () => {
+    const { text, waitedMs } = await rawAnswer(
+      'POST /v1/checks HTTP/1.1\r\nHost: x\r\nContent-Type: application/json\r\nContent-Length: 100\r\n\r\n{"st',
+    );
+    const answer = readAnswer(text);
+    expect(answer.status).toBe(408);
+    expect(answer.headers['content-type']).toBe('application/json; charset=utf-8');
+    expect(answer.headers.connection).toBe('close');
+    expect(answer.body).toEqual({
+      error: 'request_timeout',
+      message: "The request's headers and body did not all arrive within 0.3 s; the connection is closed.",
+      details: [],
+      request_id: answer.headers['x-request-id'],
+    });
+    expect(waitedMs).toBeLessThan(5000);
+  });
+
+  it('headers that never end are answered 408 request_timeout too', async () => {
+    const answer = readAnswer((await rawAnswer('GET /healthz HTTP/1.1\r\nHost: x\r\n')).text);
+    expect(answer.status).toBe(408);
+    expect(answer.body.error).toBe('request_timeout');
+  });
+
+  it('headers larger than 16 KiB are answered 431 headers_too_large from the catalogue', async () => {
+    const { text } = await rawAnswer(`GET /healthz HTTP/1.1\r\nHost: x\r\nX-Big: ${'a'.repeat(20_000)}\r\n\r\n`);
+    const answer = readAnswer(text);
+    expect(answer.status).toBe(431);
+    expect(answer.body.error).toBe('headers_too_large');
+    expect(answer.body.request_id).toBe(answer.headers['x-request-id']);
+  });
+
+  it('bytes that are not HTTP, or a Content-Length that is not a number, are answered 400 malformed_request', async () => {
+    for (const bytes of ['GARBAGE\r\n\r\n', 'GET / HTTP/1.1\r\nHost: x\r\nContent-Length: abc\r\n\r\n']) {
+      const answer = readAnswer((await rawAnswer(bytes)).text);
+      expect(answer.status).toBe(400);
+      expect(answer.body.error).toBe('malformed_request');
+      expect(answer.body.message).toBe(
+        'The request cannot be read as HTTP/1.1: check the request line and the headers.',
+      );
+    }
   });
 });
