@@ -176,7 +176,8 @@ const fixedPartDisagrees = {
  * right and back every 1.5 m. Its stations are made, for this demo, by a die of four plates, 14 mm between pivots,
  * pinned to the die body at (−6, 12) and (46, 12), whose second plate is held by one link from the die body, all
  * driven by one actuator on the first plate's ground pivot at 0.15, 0.30 and 0.45 rad: the melt edge is the plates'
- * pivot line swollen by e = 5 mm (docs/MODEL.md §2). The chain closes by the law of cosines.
+ * pivot line swollen by e = 5 mm (docs/MODEL.md §2). The chain closes by the law of cosines. The puller follows the
+ * orifice area, so every station and the motion between them run at the middle of the draw-down range.
  */
 function rollingRidgeStations(): { outer: P[]; holes: P[][] }[] {
   const start: P = [-6, 12];
@@ -216,6 +217,9 @@ function roundRegion(r: { outer: P[]; holes: P[][] }): { outer: P[]; holes: P[][
 const demo = {
   name: 'edging-strip-demo',
   ...edgingStripSettings,
+  // the orifice grows 27 % from the first station to the third: at a constant line speed the draw-down would leave
+  // 1.0–1.3, so the puller follows the area and holds 1.15 at constant throughput (ṁ = ρ·A·v, docs/MODEL.md §3)
+  process: { ...edgingStripSettings.process, puller_follows_area: true },
   stations: rollingRidgeStations().map((orifice, i) => ({ position_m: 0.375 * i, orifice })),
 };
 

@@ -43,6 +43,26 @@ describe('POST /v1/checks', () => {
     expect(res.headers['x-request-id']).toBeTruthy();
   });
 
+  it('honours process.puller_follows_area on the demo: each station at the puller speed that holds 1.15', async () => {
+    const res = await post(fixture('demo-edging-strip'));
+    expect(res.status).toBe(200);
+    expect(res.body.puller_follows_area).toBe(true);
+    const stations = res.body.stations as Record<string, number>[];
+    // area draw-down held at the middle of 1.0–1.3 by the puller, ṁ = ρ·A·v at constant throughput (docs/MODEL.md §3)
+    for (const s of stations) {
+      expect(s.draw_down_ratio).toBeCloseTo(1.15, 3);
+      expect(s.puller_speed_m_per_min).toBe(s.puller_speed_for_target_m_per_min);
+    }
+    // the orifice grows from 280 to 356 mm², so the puller slows from 2 m/min by the same ratio
+    expect(stations[0]!.puller_speed_m_per_min).toBeCloseTo(2, 3);
+    expect(stations[2]!.puller_speed_m_per_min).toBeCloseTo((2 * stations[0]!.area_mm2!) / stations[2]!.area_mm2!, 2);
+    const codes = (res.body.findings as { code: string; message: string }[]).map((f) => f.code);
+    expect(codes.filter((c) => c.startsWith('DRAW_DOWN_'))).toEqual([]);
+    // the check uses the field now, so it is not reported as one only a plan reads
+    const unused = (res.body.findings as { code: string; message: string }[]).filter((f) => f.code === 'UNUSED_FIELD');
+    expect(unused.some((f) => f.message.includes('puller_follows_area'))).toBe(false);
+  });
+
   it('flags the thin fin with its location', async () => {
     const res = await post(fixture('thin-wall'));
     expect(res.status).toBe(200);

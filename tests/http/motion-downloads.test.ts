@@ -189,11 +189,17 @@ describe('motion.json for the review page', () => {
       steps: 901,
       time_step_s: 0.05,
       capped: false,
-      puller_follows_area: false,
-      duration_s: 45,
+      puller_follows_area: true,
       unsolved_steps: 0,
       max_leak_area_mm2: 0,
     });
+    // the demo's puller follows the area (fixtures/demo-edging-strip.json): the repeat takes ∫ dx / v (dt = dx/v),
+    // between 1.5 m at the fastest and at the slowest puller speed; 2 m/min at the first station, where the
+    // throughput is set, so 45 s at most
+    const speed = plan.simulation.puller_speed_m_per_min as { min: number; max: number };
+    expect(speed.max).toBeCloseTo(2, 3);
+    expect(plan.simulation.duration_s).toBeGreaterThan((1.5 / speed.max) * 60);
+    expect(plan.simulation.duration_s).toBeLessThan((1.5 / speed.min) * 60);
     // the demo's thinnest wall is above its 1.5 mm minimum at every station (docs/MODEL.md §6) and between them
     expect(plan.simulation.min_wall_mm).toBeGreaterThan(1.5);
     expect(plan.simulation.area_mm2.max).toBeGreaterThan(plan.simulation.area_mm2.min);

@@ -9,7 +9,9 @@ const fieldsNamed = (findings: { code: string; message: string }[]) =>
 
 describe('fields the format knows but a route does not use', () => {
   it('a check names the field no stage reads yet and those only a plan reads (motion fields included)', async () => {
-    // the demo fixture sends every setting a line controller would (scripts/make-fixtures.ts)
+    // the demo fixture sends every setting a line controller would (scripts/make-fixtures.ts); its
+    // process.puller_follows_area is read by the check too (the station draw-down is taken at that puller speed), so it
+    // is not named
     const res = await request(testApp().server)
       .post('/v1/checks')
       .set('content-type', 'application/json')

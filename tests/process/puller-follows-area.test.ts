@@ -102,7 +102,7 @@ describe('checkProcess: the following puller speed against its plausible range (
   });
 });
 
-describe('checkSchedule on the demo (fixtures/demo-edging-strip.json) with and without process.puller_follows_area', () => {
+describe('checkSchedule on the demo (fixtures/demo-edging-strip.json, process.puller_follows_area true)', () => {
   const wire = JSON.parse(readFileSync(new URL('../../fixtures/demo-edging-strip.json', import.meta.url), 'utf8'));
   const schedule = (pullerFollowsArea: boolean) => {
     const mapped = toSchedule({ ...wire, process: { ...wire.process, puller_follows_area: pullerFollowsArea } });
@@ -113,6 +113,7 @@ describe('checkSchedule on the demo (fixtures/demo-edging-strip.json) with and w
   const constant = checkSchedule(schedule(false));
 
   it('holds the target draw-down 1.15 (middle of 1.0–1.3) at every station with the puller slowing as the area grows', () => {
+    expect(wire.process.puller_follows_area).toBe(true);
     expect(following.targetDrawDown).toBeCloseTo(1.15, 12);
     for (const s of following.stations) expect(s.process.drawDownRatio).toBeCloseTo(1.15, 12);
     // throughput from the first station at 2 m/min, so the puller runs there at the line speed; then v ∝ 1/A
