@@ -18,8 +18,7 @@ import { ApiTokens, type Principal } from './http/api-tokens.js';
 import { clientErrorAnswer } from './http/client-error-answer.js';
 import { completeOpenapi, openapiInfo, registerComponentSchemas } from './http/build-openapi.js';
 import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './http/error-catalogue.js';
-import { downloadName } from './http/motion-tables.js';
-import { DownloadCache } from './http/download-cache.js';
+import { DownloadSource } from './http/download-source.js';
 import { matchesEtag, planEtag } from './http/plan-gate.js';
 import { checkRoutes } from './http/routes/checks.js';
 import { pageRoutes } from './http/routes/pages.js';
@@ -118,7 +117,9 @@ export async function buildApp(options: AppOptions) {
     onConstructorPoisoning: 'error',
     // errors Node's HTTP parser meets before there is a request (a request not in within requestTimeout, headers too
     // large, bytes that are not HTTP) are answered in the catalogue's shape too, then the connection is closed
-    clientErrorHandler: clientErrorAnswer(timeouts.requestMs, (fields, message) => options.logger.debug(fields, message)),
+    clientErrorHandler: clientErrorAnswer(timeouts.requestMs, (fields, message) =>
+      options.logger.debug(fields, message),
+    ),
     // errors the router raises before any route (a broken percent-escape, an over-long id) speak the catalogue too
     frameworkErrors: (error, request, frameworkReply) => {
       frameworkReply.header('x-request-id', request.id);
@@ -302,17 +303,13 @@ export async function buildApp(options: AppOptions) {
   });
 
   // downloads of a plan (/v1/plans/{id}/…): unknown → 404, queued or running → 409 not_ready; finished → ETag,
-  // If-None-Match → 304, the plan's cautions named in a header, a file name when the route gives none; a download
-  // sent once is sent again from memory (a finished plan never changes)
-  const downloads = new DownloadCache();
-  const fromCache = new WeakSet<object>();
-  const downloadOf = (request: { routeOptions: { url?: string }; method: string }) => {
-    const route = request.routeOptions.url ?? '';
-    const reads = request.method === 'GET' || request.method === 'HEAD';
-    return route.startsWith(DOWNLOAD_PREFIX) && reads ? route.slice(DOWNLOAD_PREFIX.length) : null;
-  };
+  // If-None-Match → 304, Link to the plan; the route then sends the file from memory, the store or a worker
+  // (DownloadSource), never rendering on this thread
+  const downloads = new DownloadSource(store, pool);
   app.addHook('preHandler', async (request, reply) => {
-    if (downloadOf(request) === null) return;
+    const route = request.routeOptions.url;
+    if (route === undefined || !route.startsWith(DOWNLOAD_PREFIX)) return;
+    if (request.method !== 'GET' && request.method !== 'HEAD') return;
     const id = (request.params as { id?: string }).id ?? '';
     const entry = store.entry(id);
     if (!entry) return send(reply, request.id, 'not_found', `No plan with id ${id}.`);
@@ -333,29 +330,7 @@ export async function buildApp(options: AppOptions) {
       reply.header('etag', etag);
       reply.header('cache-control', 'private, no-cache');
       if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send();
-      const cached = downloads.get(etag);
-      if (cached) {
-        fromCache.add(request);
-        return reply.headers(cached.headers).send(cached.body);
-      }
     }
-    const cautions = store.get(id)?.plan.cautions.map((c) => c.code) ?? [];
-    if (cautions.length > 0) reply.header('x-cautions', cautions.join(', '));
-    const file = request.url.split('?')[0]!.split('/').slice(4).join('-');
-    reply.header('content-disposition', `attachment; filename="${downloadName(entry.name, file)}"`);
-  });
-  app.addHook('onSend', async (request, reply, payload) => {
-    if (request.method !== 'GET' || reply.statusCode !== 200 || fromCache.has(request)) return payload;
-    if (downloadOf(request) === null) return payload;
-    const etag = reply.getHeader('etag');
-    if (typeof etag !== 'string' || !(typeof payload === 'string' || Buffer.isBuffer(payload))) return payload;
-    const headers: Record<string, string> = {};
-    for (const name of ['content-type', 'content-disposition', 'x-cautions']) {
-      const value = reply.getHeader(name);
-      if (typeof value === 'string') headers[name] = value;
-    }
-    downloads.set(etag, (request.params as { id: string }).id, { body: payload, headers });
-    return payload;
   });
   app.addHook('onResponse', async (request, reply) => {
     if (request.method === 'DELETE' && reply.statusCode === 204 && request.routeOptions.url === '/v1/plans/:id') {
@@ -367,8 +342,8 @@ export async function buildApp(options: AppOptions) {
   await app.register(healthRoutes({ store, jobs, pool, config: rateLimitOff }));
   await app.register(checkRoutes(pool));
   await app.register(planRoutes({ store, jobs, pollAfterS: POLL_AFTER_S }));
-  await app.register(planDownloadRoutes(store));
-  await app.register(planDrawingRoutes(store));
+  await app.register(planDownloadRoutes(downloads));
+  await app.register(planDrawingRoutes(downloads));
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   await app.register(pageRoutes);
   return app;

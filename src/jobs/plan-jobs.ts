@@ -128,10 +128,20 @@ export class PlanJobs {
       .plan(task, controller.signal, onProgress)
       .then((done) => {
         if (done.unreadable) log('warn', { plan: entry.id, unreadable: done.unreadable }, 'plan not finite');
+        if (done.renderError) {
+          log('error', { plan: entry.id, err: done.renderError }, 'plan downloads not rendered; rendered when asked');
+        }
         const stored = store.finish(entry.id, done.result, this.iso());
         log(
           'info',
-          { plan: entry.id, status: done.result.status, plates: done.plates, ms: done.ms, stored },
+          {
+            plan: entry.id,
+            status: done.result.status,
+            plates: done.plates,
+            ms: done.ms,
+            downloads: done.result.artifacts?.length ?? 0,
+            stored,
+          },
           'plan computed',
         );
       })

@@ -4,7 +4,8 @@ import { Piscina } from 'piscina';
 import type { Schedule } from '../domain/index.js';
 import type { CheckReport } from '../http/report-schema.js';
 import type { PlanProgress } from '../store/index.js';
-import type { CheckTask, PlanTask, PlanTaskResult } from './run-task.js';
+import type { RenderedDownload } from '../http/render-download.js';
+import type { CheckTask, PlanTask, PlanTaskResult, RenderTask } from './run-task.js';
 
 /** Sizes of the worker pool. */
 export interface WorkerPoolOptions {
@@ -14,6 +15,8 @@ export interface WorkerPoolOptions {
   readonly checkThreads?: number;
   /** Checks that may wait for a thread; more are refused (503). @default 64 */
   readonly maxCheckQueue?: number;
+  /** Downloads that may wait for a thread to render them; more are refused (503). @default 64 */
+  readonly maxRenderQueue?: number;
   /** Start every thread at once (the service), or each when first needed (tests, short-lived tools). @default true */
   readonly warm?: boolean;
 }
@@ -21,10 +24,10 @@ export interface WorkerPoolOptions {
 /** Heap limit of one worker thread, MiB (the demo plans in well under 200). */
 export const WORKER_HEAP_MB = 2048;
 
-/** Thrown by `check` when too many checks wait already. */
+/** Thrown by `check` or `render` when too many tasks of its kind wait already. */
 export class PoolBusyError extends Error {
-  constructor() {
-    super('too many checks are waiting for a worker');
+  constructor(what = 'checks') {
+    super(`too many ${what} are waiting for a worker`);
   }
 }
 
@@ -37,11 +40,14 @@ export class WorkerPool {
   private readonly piscina: Piscina;
   private readonly maxCheckQueue: number;
   private waitingChecks = 0;
+  private readonly maxRenderQueue: number;
+  private waitingRenders = 0;
   private closed = false;
 
   constructor(options: WorkerPoolOptions) {
     const threads = options.planThreads + (options.checkThreads ?? 1);
     this.maxCheckQueue = options.maxCheckQueue ?? 64;
+    this.maxRenderQueue = options.maxRenderQueue ?? 64;
     this.piscina = new Piscina({
       filename: fileURLToPath(new URL('./worker-entry.mjs', import.meta.url)),
       minThreads: options.warm === false ? 0 : threads,
@@ -80,6 +86,21 @@ export class WorkerPool {
       return (await this.piscina.run(task)) as CheckReport;
     } finally {
       this.waitingChecks--;
+    }
+  }
+
+  /**
+   * Renders downloads of a finished plan in a worker (the drawing model's clipping and every writer stay off the
+   * service thread); `PoolBusyError` when too many renders wait.
+   */
+  async render(task: Omit<RenderTask, 'kind'>): Promise<RenderedDownload[]> {
+    if (this.waitingRenders >= this.maxRenderQueue) throw new PoolBusyError('downloads');
+    this.waitingRenders++;
+    try {
+      const full: RenderTask = { ...task, kind: 'render' };
+      return (await this.piscina.run(full)) as RenderedDownload[];
+    } finally {
+      this.waitingRenders--;
     }
   }
 

@@ -148,12 +148,12 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
   const first = mechaniseChain(fit, request);
   if (fit.status === 'fitted' && first.status === 'mechanised') {
     record('as asked', fit, first, 'chosen');
-    return finish(schedule, base, check, fit, first, tried, []);
+    return finish(progress, schedule, base, check, fit, first, tried, []);
   }
   if (fit.status !== 'fitted') {
     record('as asked', fit, first, 'chosen: no chain the search tried meets the fit tolerance');
     const shortfall = `No chain the search tried traces every station within ${schedule.limits.fitToleranceMm} mm (best ${fmt(worstOf(fit))} mm).`;
-    return finish(schedule, base, check, fit, first, tried, [shortfall]);
+    return finish(progress, schedule, base, check, fit, first, tried, [shortfall]);
   }
   record('as asked', fit, first, `the requested ${request.actuatorCount} actuator(s) do not drive it`);
 
@@ -211,7 +211,7 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
         value: other.plateCount,
         message: `The chain fitted with the schedule's own settings (${fit.plateCount} plates) cannot be driven by ${request.actuatorCount} actuator(s); a chain with ${variant.name} (${other.plateCount} plates) traces every station and is driven by them, so it is the plan. See chains_tried.`,
       };
-      return finish(schedule, base, check, other, driven, tried, [], [note]);
+      return finish(progress, schedule, base, check, other, driven, tried, [], [note]);
     }
     record(variant.name, other, driven, `the requested ${request.actuatorCount} actuator(s) do not drive it`);
     const fewest = fallback.mechanisation.smallestActuatorCount;
@@ -237,16 +237,27 @@ export function planSchedule(schedule: Schedule, settings: PlanSettings = {}): P
     if (built.status === 'mechanised') {
       const row = tried[fallback.row]!;
       tried[fallback.row] = { ...row, verdict: `chosen with ${smallest} actuators: the fewest found` };
-      return finish(schedule, base, check, fallback.fit, built, tried, [shortfall], fallback.mechanisation.findings);
+      return finish(
+        progress,
+        schedule,
+        base,
+        check,
+        fallback.fit,
+        built,
+        tried,
+        [shortfall],
+        fallback.mechanisation.findings,
+      );
     }
   }
-  return finish(schedule, base, check, fit, first, tried, [shortfall]);
+  return finish(progress, schedule, base, check, fit, first, tried, [shortfall]);
 }
 
 /** Plates tried this much deeper than asked when the chain's plates leave no room for link pins. */
 const DEEPER_PLATES = 1.6;
 
 function finish(
+  progress: (stage: string, fraction: number) => void,
   schedule: Schedule,
   base: Pick<Plan, 'check' | 'cautions'>,
   check: ScheduleCheck,
@@ -274,6 +285,7 @@ function finish(
   let simulation: PlanSimulation | null = null;
   const unsimulated: Finding[] = [];
   if (moved.motion && mechanisation.status === 'mechanised') {
+    progress('motion', 0.9);
     try {
       simulation = simulatePlan({ schedule, check, fit, mechanisation, motion: moved.motion });
     } catch (err) {

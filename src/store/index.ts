@@ -10,6 +10,7 @@ export {
   type PlanResult,
   type PlanStatus,
   type PlanStore,
+  type StoredArtifact,
 } from './plan-store.js';
 export { isPlanCursor, SqlitePlanStore } from './sqlite-plan-store.js';
 export { decodeJson, encodeJson } from './json-codec.js';

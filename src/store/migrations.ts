@@ -41,4 +41,21 @@ export const MIGRATIONS: readonly { readonly version: number; readonly name: str
       );
     `,
   },
+  {
+    version: 2,
+    name: 'downloads rendered with the plan',
+    sql: `
+      CREATE TABLE artifacts (
+        plan_id TEXT NOT NULL REFERENCES results(plan_id) ON DELETE CASCADE,
+        name TEXT NOT NULL,
+        position INTEGER NOT NULL,
+        content_type TEXT NOT NULL,
+        disposition TEXT NOT NULL,
+        cautions TEXT NOT NULL,
+        refusal TEXT,
+        body BLOB NOT NULL,
+        PRIMARY KEY (plan_id, name)
+      ) WITHOUT ROWID;
+    `,
+  },
 ];

@@ -75,6 +75,24 @@ export interface PlanResult {
   /** The `GET /v1/plans/{id}` report, JSON, sent as stored. */
   readonly reportJson: string;
   readonly planHash: string;
+  /** The plan's downloads rendered by the worker, stored with the result in the same transaction. @default none */
+  readonly artifacts?: readonly StoredArtifact[];
+}
+
+/**
+ * One download of a finished plan as rendered when the plan finished: the file's bytes and the headers that describe
+ * it, or (with `refusal`, an error code of the catalogue) the reason the plan has no such file, its message as body.
+ */
+export interface StoredArtifact {
+  /** The download's path below `/v1/plans/{id}/`, with its query when not the default (`die-body.dxf?dimensions=hot`). */
+  readonly name: string;
+  readonly contentType: string;
+  /** The Content-Disposition header; empty for a refusal. */
+  readonly disposition: string;
+  /** The plan's caution codes, comma separated (the X-Cautions header). */
+  readonly cautions: string;
+  readonly refusal: string | null;
+  readonly body: Uint8Array;
 }
 
 /** Filters and paging of the plan list; newest first. */
@@ -109,6 +127,21 @@ export interface PlanStore {
   get(id: string): PlanRecord | undefined;
   /** The stored `GET /v1/plans/{id}` report of a finished plan, JSON. */
   report(id: string): string | undefined;
+  /** A finished plan's stored download; undefined when none is stored under that name. */
+  artifact(id: string, name: string): StoredArtifact | undefined;
+  /** Names of a plan's stored downloads in the order they were rendered (none for a plan stored before downloads were rendered with the plan). */
+  artifactNames(id: string): readonly string[];
+  /** Stores downloads of a finished plan that has none yet (plans stored before they were rendered); false otherwise. */
+  addArtifacts(id: string, artifacts: readonly StoredArtifact[]): boolean;
+  /** A finished plan as stored, unparsed: its schedule and plan JSON (for a worker to read) and its hash. */
+  resultText(id: string):
+    | {
+        readonly createdAt: string;
+        readonly scheduleJson: string;
+        readonly planJson: string;
+        readonly planHash: string;
+      }
+    | undefined;
   /** The plan's schedule, whatever its status. */
   schedule(id: string): Schedule | undefined;
   /** The request findings stored with a plan. */

@@ -16,6 +16,7 @@ import type {
   PlanResult,
   PlanStatus,
   PlanStore,
+  StoredArtifact,
 } from './plan-store.js';
 
 interface PlanRow {
@@ -86,6 +87,21 @@ export class SqlitePlanStore implements PlanStore {
          JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
       ),
       report: db.prepare('SELECT report_json AS json FROM results WHERE plan_id = ?'),
+      resultText: db.prepare(
+        `SELECT p.created_at, s.schedule_json, r.plan_json, r.plan_hash FROM plans p
+         JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
+      ),
+      artifact: db.prepare(
+        `SELECT name, content_type, disposition, cautions, refusal, body FROM artifacts
+         WHERE plan_id = ? AND name = ?`,
+      ),
+      artifactNames: db.prepare('SELECT name FROM artifacts WHERE plan_id = ? ORDER BY position'),
+      anyArtifact: db.prepare('SELECT 1 AS one FROM artifacts WHERE plan_id = ? LIMIT 1'),
+      hasResult: db.prepare('SELECT 1 AS one FROM results WHERE plan_id = ?'),
+      insertArtifact: db.prepare(
+        `INSERT INTO artifacts (plan_id, name, position, content_type, disposition, cautions, refusal, body)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?)`,
+      ),
       oldestQueued: db.prepare("SELECT id FROM plans WHERE status = 'queued' ORDER BY created_at, rowid LIMIT 1"),
       start: db.prepare(
         `UPDATE plans SET status = 'running', attempts = attempts + 1, started_at = ?, stage = 'queued', fraction = 0
@@ -182,6 +198,69 @@ export class SqlitePlanStore implements PlanStore {
     return json;
   }
 
+  artifact(id: string, name: string): StoredArtifact | undefined {
+    const row = this.statements.artifact.get(id, name) as
+      | {
+          name: string;
+          content_type: string;
+          disposition: string;
+          cautions: string;
+          refusal: string | null;
+          body: Buffer;
+        }
+      | undefined;
+    if (!row) return undefined;
+    return {
+      name: row.name,
+      contentType: row.content_type,
+      disposition: row.disposition,
+      cautions: row.cautions,
+      refusal: row.refusal,
+      body: row.body,
+    };
+  }
+
+  artifactNames(id: string): readonly string[] {
+    return (this.statements.artifactNames.all(id) as { name: string }[]).map((r) => r.name);
+  }
+
+  addArtifacts(id: string, artifacts: readonly StoredArtifact[]): boolean {
+    return this.db.transaction(() => {
+      if (!this.statements.hasResult.get(id) || this.statements.anyArtifact.get(id)) return false;
+      this.insertArtifacts(id, artifacts);
+      return true;
+    })();
+  }
+
+  resultText(id: string) {
+    const row = this.statements.resultText.get(id) as
+      | { created_at: string; schedule_json: string; plan_json: string; plan_hash: string }
+      | undefined;
+    if (!row) return undefined;
+    return {
+      createdAt: row.created_at,
+      scheduleJson: row.schedule_json,
+      planJson: row.plan_json,
+      planHash: row.plan_hash,
+    };
+  }
+
+  private insertArtifacts(id: string, artifacts: readonly StoredArtifact[]): void {
+    artifacts.forEach((a, position) => {
+      const body = Buffer.isBuffer(a.body) ? a.body : Buffer.from(a.body.buffer, a.body.byteOffset, a.body.byteLength);
+      this.statements.insertArtifact.run(
+        id,
+        a.name,
+        position,
+        a.contentType,
+        a.disposition,
+        a.cautions,
+        a.refusal,
+        body,
+      );
+    });
+  }
+
   schedule(id: string): Schedule | undefined {
     const row = this.statements.schedule.get(id) as { json: string } | undefined;
     return row ? decodeJson<Schedule>(row.json) : undefined;
@@ -214,6 +293,7 @@ export class SqlitePlanStore implements PlanStore {
       const changed = this.statements.finish.run(result.status, result.error, finishedAt, id).changes;
       if (changed === 0) return false;
       this.statements.insertResult.run(id, result.planHash, result.planJson, result.reportJson);
+      this.insertArtifacts(id, result.artifacts ?? []);
       return true;
     })();
   }
