@@ -152,11 +152,13 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
             request_id: request.id,
           });
         }
+        const since = q.created_since === undefined ? undefined : createdSinceKey(q.created_since);
+        if (since === null) return { items: [], next_cursor: null };
         const page = store.list({
           limit: q.limit,
           ...(q.status === undefined ? {} : { status: q.status }),
           ...(q.name === undefined ? {} : { name: q.name }),
-          ...(q.created_since === undefined ? {} : { createdSince: new Date(q.created_since).toISOString() }),
+          ...(since === undefined ? {} : { createdSince: since }),
           ...(q.cursor === undefined ? {} : { after: q.cursor }),
         });
         return { items: page.items.map(summary), next_cursor: page.next };
@@ -245,6 +247,17 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
       };
     };
   };
+}
+
+/**
+ * `?created_since=` as the store compares it, text against ISO 8601 UTC times with a 4-digit year; null when no plan
+ * can be created that late. An offset can carry 9999-12-31 into year 10000 ("+010000-…", which sorts before every
+ * 4-digit year) or 0000-01-01 back into year −1 ("-000001-…").
+ */
+function createdSinceKey(text: string): string | null {
+  const iso = new Date(text).toISOString();
+  if (iso.startsWith('+')) return null;
+  return iso.startsWith('-') ? '0000-01-01T00:00:00.000Z' : iso;
 }
 
 function summary(entry: PlanEntry) {
