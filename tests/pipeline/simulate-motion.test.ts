@@ -186,6 +186,56 @@ describe('simulationFindings: walls along the motion', () => {
   });
 });
 
+describe('simulationFindings: the puller speed when it follows the area', () => {
+  const { input } = wiper();
+  const positionsM = Array.from({ length: 201 }, (_, i) => i / 200);
+  const sim = simulateMotion(input, {
+    positionsM,
+    timesS: positionsM.map((x) => x * 60),
+    clip: true,
+    wallStride: 1000,
+  });
+  const smallestMm2 = Math.min(...sim.areaMm2);
+  // mass balance ṁ = ρ·A·v (docs/MODEL.md §3) with the product A/ADR, ADR 1 and ρ 1000 kg/m³: a throughput that needs
+  // 300 m/min at the smallest orifice, so the puller leaves the 200 m/min ceiling where the orifice is below 1.5× it
+  const throughputKgPerS = (1000 * smallestMm2 * 1e-6 * 300) / 60;
+  const speeds = sim.areaMm2.map((a) => throughputKgPerS / (1000 * a * 1e-6));
+  const planned = (follows: boolean) => ({
+    ...asPlanSimulation(sim, 1000),
+    pullerFollowsArea: follows,
+    throughputKgPerS,
+    pullerSpeedMPerS: follows ? speeds : speeds.map(() => 1 / 60),
+  });
+
+  it('gives MOTION_PULLER_SPEED_OUT_OF_RANGE exactly over the steps above 200 m/min, worst 300 m/min', () => {
+    expect(Math.min(...speeds) * 60).toBeLessThan(200); // the stations' full opening is well inside the range
+    const fast = simulationFindings(planned(true), scheduleForTest({ stations: 2 })).filter(
+      (f) => f.code === 'MOTION_PULLER_SPEED_OUT_OF_RANGE',
+    );
+    expect(fast.length).toBeGreaterThan(0);
+    for (const f of fast) {
+      const from = positionsM.indexOf(f.positionM!);
+      const to = positionsM.indexOf(f.toPositionM!);
+      for (let j = from; j <= to; j++) expect(speeds[j]! * 60).toBeGreaterThan(200);
+      if (from > 0) expect(speeds[from - 1]! * 60).toBeLessThanOrEqual(200);
+      if (to < positionsM.length - 1) expect(speeds[to + 1]! * 60).toBeLessThanOrEqual(200);
+      expect(f.limit).toBe(200);
+    }
+    expect(Math.max(...fast.map((f) => f.value!))).toBeCloseTo(300, 9);
+    const broken = speeds.filter((v) => v * 60 > 200).length;
+    const covered = fast.reduce(
+      (n, f) => n + positionsM.indexOf(f.toPositionM!) - positionsM.indexOf(f.positionM!) + 1,
+      0,
+    );
+    expect(covered).toBe(broken);
+  });
+
+  it('gives none with the puller at the line speed, where the draw-down is checked instead', () => {
+    const codes = simulationFindings(planned(false), scheduleForTest({ stations: 2 })).map((f) => f.code);
+    expect(codes).not.toContain('MOTION_PULLER_SPEED_OUT_OF_RANGE');
+  });
+});
+
 describe('simulatePlan on the demo (fixtures/demo-edging-strip.json)', () => {
   const wire = fixture('demo-edging-strip') as Parameters<typeof toSchedule>[0];
   const mapping = toSchedule(wire);
