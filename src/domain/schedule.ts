@@ -87,6 +87,12 @@ export interface Limits {
   readonly minPlates: number;
   /** Fit exactly this many plates instead of searching for the fewest; null to search. */
   readonly plateCount: number | null;
+  /**
+   * Speeds the puller can run at, m/s: the puller speed that holds the target draw-down is checked against it when the
+   * puller follows the area, and the nominal line speed when it does not. @default 0.01–200 m/min when absent (the
+   * range `line_speed_m_per_min` accepts; `PLAUSIBLE` in process/)
+   */
+  readonly pullerSpeedMPerS?: { readonly min: number; readonly max: number };
 }
 
 export interface PlateSettings {

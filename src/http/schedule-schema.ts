@@ -234,6 +234,19 @@ export const LimitsWire = z.object({
     .max(60, { error: 'plate_count may be at most 60' })
     .optional()
     .describe('fit exactly this many plates instead of searching for the fewest; default: search'),
+  puller_speed_m_per_min: z
+    .object({
+      min: ranged('puller_speed_m_per_min.min', R.line_speed_m_per_min),
+      max: ranged('puller_speed_m_per_min.max', R.line_speed_m_per_min),
+    })
+    .refine((d) => d.min <= d.max, { error: 'puller_speed_m_per_min.min must not exceed puller_speed_m_per_min.max' })
+    .optional()
+    .describe(
+      withRange(
+        'speeds the puller can run at, m/min (its data sheet): with process.puller_follows_area the speed that holds the target draw-down at each station and along the motion is checked against it (PULLER_SPEED_OUT_OF_RANGE, MOTION_PULLER_SPEED_OUT_OF_RANGE), else the line speed; default: the whole plausible range',
+        R.line_speed_m_per_min,
+      ),
+    ),
 });
 
 export const PlatesWire = z.object({

@@ -178,6 +178,14 @@ export function toSchedule(wire: ScheduleWireValue): ScheduleMapping {
       maxPlates,
       minPlates,
       plateCount: plateCount ?? null,
+      ...(wire.limits?.puller_speed_m_per_min
+        ? {
+            pullerSpeedMPerS: {
+              min: wire.limits.puller_speed_m_per_min.min / 60,
+              max: wire.limits.puller_speed_m_per_min.max / 60,
+            },
+          }
+        : {}),
     },
     plates: {
       pivotHoleDiameterMm: wire.plates?.pivot_hole_diameter_mm ?? WIRE_DEFAULTS.pivotHoleDiameterMm,

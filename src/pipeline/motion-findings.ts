@@ -1,7 +1,7 @@
 import type { Finding, Schedule } from '../domain/index.js';
 import type { Point } from '../geometry/index.js';
 import { metresPerMinute } from '../motion/index.js';
-import { FLOW_IMBALANCE_LIMIT, messageNumber as fmt, PLAUSIBLE, ratioText } from '../process/index.js';
+import { FLOW_IMBALANCE_LIMIT, messageNumber as fmt, pullerSpeedRangeMPerMin, ratioText } from '../process/index.js';
 import type { PlanSimulation } from './plan-simulation.js';
 
 /** A pressure rise over the first station worth a warning: the same 1.5× as `PRESSURE_SWING` (common practice). */
@@ -53,7 +53,7 @@ export function brokenRuns(
  * `toPositionM`) and the worst value in it: `MOTION_NOT_SOLVED`, `MOTION_LEAK`, `MOTION_OPENING_BEYOND_STATIONS`,
  * `MOTION_THIN_WALL` (with `at`, where the thinnest wall is), `MOTION_WALL_RATIO`, `MOTION_FLOW_IMBALANCE`,
  * `MOTION_DRAW_DOWN_HIGH` / `_LOW` (puller at the nominal speed) or `MOTION_PULLER_SPEED_OUT_OF_RANGE` (puller following
- * the area, outside the plausible 0.01–200 m/min), `MOTION_PRESSURE_RISE`,
+ * the area, outside `limits.pullerSpeedMPerS`, by default 0.01–200 m/min), `MOTION_PRESSURE_RISE`,
  * `MOTION_TRANSMISSION_ANGLE`, `MOTION_CLEARANCE`; and one `MOTION_SIMULATED` note saying what was simulated (steps,
  * time step, wall stride, the fastest plate tip, the puller's range when it follows the area).
  */
@@ -187,9 +187,12 @@ export function simulationFindings(
   if (sim.pullerFollowsArea) {
     // the draw-down is held at the target; the puller speed is what can leave its range (as at the stations)
     const pullerMPerMin = sim.pullerSpeedMPerS.map((v) => metresPerMinute(v));
-    const { minPullerSpeedMPerMin: slowest, maxPullerSpeedMPerMin: fastest } = PLAUSIBLE;
+    const { min: slowest, max: fastest } = pullerSpeedRangeMPerMin(schedule);
+    const rangeText = schedule.limits.pullerSpeedMPerS
+      ? 'the puller runs at (limits.puller_speed_m_per_min)'
+      : 'a profile puller plausibly runs at (the default of limits.puller_speed_m_per_min; common practice, no source)';
     const pullerText = (run: BrokenRun, range: string, side: 'above' | 'below', limit: number) =>
-      `To hold draw-down ${fmt(sim.targetDrawDown)} the puller would run at ${fmt(pullerMPerMin[run.worst]!)} m/min ${range}, ${side} the ${fmt(limit)} m/min a profile puller plausibly runs at (the range line_speed_m_per_min accepts; common practice, no source). Change the throughput or the orifice area, or let the puller run at the line speed.`;
+      `To hold draw-down ${fmt(sim.targetDrawDown)} the puller would run at ${fmt(pullerMPerMin[run.worst]!)} m/min ${range}, ${side} the ${fmt(limit)} m/min ${rangeText}. Change the throughput or the orifice area, or let the puller run at the line speed.`;
     add(
       'MOTION_PULLER_SPEED_OUT_OF_RANGE',
       'warning',

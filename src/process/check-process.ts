@@ -4,7 +4,7 @@ import { MATERIAL_PRESETS } from '../domain/index.js';
 import { areaDrawDownRatio, pullerSpeedForDrawDown, throughputForDrawDown, velocityDrawRatio } from './draw-down.js';
 import { meltSpeedMPerS, productAreaMm2 } from './mass-balance.js';
 import { messageNumber as fmt, ratioText } from './message-number.js';
-import { fitToleranceFinding, PLAUSIBLE, scaleFindings } from './plausibility-findings.js';
+import { fitToleranceFinding, PLAUSIBLE, pullerSpeedRangeMPerMin, scaleFindings } from './plausibility-findings.js';
 import { slitFlowRatioAtEqualPressure, slitPressureDropPa, slitPressureRatioAtEqualFlow } from './slit-flow.js';
 
 /** What geometry measured on one station, the input of the process checks. */
@@ -79,7 +79,9 @@ export const FLOW_IMBALANCE_LIMIT = 5;
  * or the one that gives the first station the target draw-down at the nominal line speed. Each station's draw-down is
  * taken at the nominal line speed, or, when the puller follows the area (`process.pullerFollowsArea`), at the puller
  * speed that holds the target draw-down there at that throughput (ṁ = ρ·A·v, docs/MODEL.md §3): the draw-down is then
- * the target, and the puller speed is flagged instead where it leaves the plausible range (`PULLER_SPEED_OUT_OF_RANGE`).
+ * the target, and the puller speed is flagged instead where it leaves the puller's range (`limits.pullerSpeedMPerS`,
+ * by default the plausible 0.01–200 m/min: `PULLER_SPEED_OUT_OF_RANGE`); without it, the line speed is checked
+ * against that range once.
  *
  * @param measures  one entry per station, in schedule order.
  */
@@ -92,11 +94,26 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
     p.throughputKgPerS ??
     (first ? throughputForDrawDown(first.areaMm2, targetDrawDown, p.solidDensityKgPerM3, p.lineSpeedMPerS) : 0);
   const follows = p.pullerFollowsArea === true;
+  const pullerRange = pullerSpeedRangeMPerMin(schedule);
+  const pullerRangeText = schedule.limits.pullerSpeedMPerS
+    ? 'the puller runs at (limits.puller_speed_m_per_min)'
+    : 'a profile puller plausibly runs at (the default of limits.puller_speed_m_per_min, the range line_speed_m_per_min accepts; common practice, no source)';
   const scale = scaleFindings(schedule, measures);
   // A station drawn at the wrong scale gets its scale finding only: walls, draw-down and pressure figured from it
   // would bury the one message that matters (the scale finding says so).
   const misScaled = new Set(scale.map((f) => f.station));
   const findings: Finding[] = [...materialFindings(schedule), ...scale];
+  const lineMPerMin = p.lineSpeedMPerS * 60;
+  if (!follows && (lineMPerMin < pullerRange.min || lineMPerMin > pullerRange.max)) {
+    const slow = lineMPerMin < pullerRange.min;
+    findings.push({
+      code: 'PULLER_SPEED_OUT_OF_RANGE',
+      severity: 'warning',
+      value: lineMPerMin,
+      limit: slow ? pullerRange.min : pullerRange.max,
+      message: `The line speed ${fmt(lineMPerMin)} m/min is ${slow ? 'below' : 'above'} the ${fmt(slow ? pullerRange.min : pullerRange.max)} m/min ${pullerRangeText}. Change the line speed or the puller.`,
+    });
+  }
   const thinnest = Math.min(...measures.filter((_, i) => !misScaled.has(i)).map((m) => m.minWallMm));
   // a wall measured as nothing is THIN_WALL's business; a tolerance against it says nothing more
   const coarse = Number.isFinite(thinnest) && thinnest > 0 ? fitToleranceFinding(schedule, thinnest) : null;
@@ -164,19 +181,16 @@ export function checkProcess(schedule: Schedule, measures: readonly StationMeasu
       });
     }
     const pullerMPerMin = pullerSpeed * 60;
-    if (
-      follows &&
-      (pullerMPerMin < PLAUSIBLE.minPullerSpeedMPerMin || pullerMPerMin > PLAUSIBLE.maxPullerSpeedMPerMin)
-    ) {
-      const slow = pullerMPerMin < PLAUSIBLE.minPullerSpeedMPerMin;
-      const limit = slow ? PLAUSIBLE.minPullerSpeedMPerMin : PLAUSIBLE.maxPullerSpeedMPerMin;
+    if (follows && (pullerMPerMin < pullerRange.min || pullerMPerMin > pullerRange.max)) {
+      const slow = pullerMPerMin < pullerRange.min;
+      const limit = slow ? pullerRange.min : pullerRange.max;
       own.push({
         code: 'PULLER_SPEED_OUT_OF_RANGE',
         severity: 'warning',
         ...at,
         value: pullerMPerMin,
         limit,
-        message: `To hold draw-down ${fmt(targetDrawDown)} here the puller would run at ${fmt(pullerMPerMin)} m/min, ${slow ? 'below' : 'above'} the ${fmt(limit)} m/min a profile puller plausibly runs at (the range line_speed_m_per_min accepts; common practice, no source). Change the throughput or the orifice area, or let the puller run at the line speed (process.puller_follows_area false) and accept the draw-down findings.`,
+        message: `To hold draw-down ${fmt(targetDrawDown)} here the puller would run at ${fmt(pullerMPerMin)} m/min, ${slow ? 'below' : 'above'} the ${fmt(limit)} m/min ${pullerRangeText}. Change the throughput or the orifice area, or let the puller run at the line speed (process.puller_follows_area false) and accept the draw-down findings.`,
       });
     }
     if (landPressureBar > PLAUSIBLE.maxLandPressureBar) {

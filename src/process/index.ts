@@ -15,4 +15,10 @@ export {
   FLOW_IMBALANCE_LIMIT,
 } from './check-process.js';
 export { messageNumber, ratioText, RATIO_TEXT_CEILING } from './message-number.js';
-export { PLAUSIBLE, type StationScale, scaleFindings, fitToleranceFinding } from './plausibility-findings.js';
+export {
+  PLAUSIBLE,
+  type StationScale,
+  scaleFindings,
+  fitToleranceFinding,
+  pullerSpeedRangeMPerMin,
+} from './plausibility-findings.js';

@@ -31,6 +31,17 @@ export const PLAUSIBLE = Object.freeze({
   maxPullerSpeedMPerMin: 200,
 });
 
+/**
+ * The puller's speed range, m/min: the schedule's `limits.pullerSpeedMPerS`, or the plausible 0.01–200 m/min when it
+ * gives none.
+ */
+export function pullerSpeedRangeMPerMin(schedule: Schedule): { readonly min: number; readonly max: number } {
+  const given = schedule.limits.pullerSpeedMPerS;
+  return given
+    ? { min: given.min * 60, max: given.max * 60 }
+    : { min: PLAUSIBLE.minPullerSpeedMPerMin, max: PLAUSIBLE.maxPullerSpeedMPerMin };
+}
+
 /** What the plausibility checks read of one station: area mm², extent mm (longer bounding-box side). */
 export interface StationScale {
   readonly areaMm2: number;

@@ -63,6 +63,13 @@ describe('POST /v1/checks', () => {
     expect(unused.some((f) => f.message.includes('puller_follows_area'))).toBe(false);
   });
 
+  it('refuses a puller range whose min exceeds its max (400 naming limits.puller_speed_m_per_min)', async () => {
+    const demo = fixture('demo-edging-strip') as Record<string, Record<string, unknown>>;
+    const res = await post({ ...demo, limits: { ...demo.limits, puller_speed_m_per_min: { min: 5, max: 1 } } });
+    expect(res.status).toBe(400);
+    expect(res.body.details.map((d: { path: string }) => d.path)).toContain('limits.puller_speed_m_per_min');
+  });
+
   it('flags the thin fin with its location', async () => {
     const res = await post(fixture('thin-wall'));
     expect(res.status).toBe(200);

@@ -230,6 +230,25 @@ describe('simulationFindings: the puller speed when it follows the area', () => 
     expect(covered).toBe(broken);
   });
 
+  it('holds the speeds to limits.puller_speed_m_per_min when given: 0–250 m/min leaves only the steps above 250', () => {
+    const range = { min: 0, max: 250 / 60 };
+    const fast = simulationFindings(
+      planned(true),
+      scheduleForTest({ stations: 2, limits: { pullerSpeedMPerS: range } }),
+    );
+    const out = fast.filter((f) => f.code === 'MOTION_PULLER_SPEED_OUT_OF_RANGE');
+    expect(out.length).toBeGreaterThan(0);
+    for (const f of out) {
+      expect(f.limit).toBeCloseTo(250, 9);
+      expect(f.message).toContain('(limits.puller_speed_m_per_min)');
+    }
+    const covered = out.reduce(
+      (n, f) => n + positionsM.indexOf(f.toPositionM!) - positionsM.indexOf(f.positionM!) + 1,
+      0,
+    );
+    expect(covered).toBe(speeds.filter((v) => v * 60 > 250).length);
+  });
+
   it('gives none with the puller at the line speed, where the draw-down is checked instead', () => {
     const codes = simulationFindings(planned(false), scheduleForTest({ stations: 2 })).map((f) => f.code);
     expect(codes).not.toContain('MOTION_PULLER_SPEED_OUT_OF_RANGE');

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import type { Finding } from '../../src/domain/index.js';
+import { ScheduleWire } from '../../src/http/schedule-schema.js';
 import { toSchedule } from '../../src/http/to-schedule.js';
 import { checkSchedule } from '../../src/pipeline/index.js';
 import { checkProcess, massFlowKgPerS, type StationMeasures } from '../../src/process/index.js';
@@ -153,5 +154,53 @@ describe('checkSchedule on the demo (fixtures/demo-edging-strip.json, process.pu
       expect(s.process.landPressureBar).toBe(constant.stations[i]!.process.landPressureBar);
       expect(s.process.pullerSpeedForTargetMPerS).toBe(constant.stations[i]!.process.pullerSpeedForTargetMPerS);
     });
+  });
+});
+
+describe('checkSchedule on the demo against the puller’s own range (limits.puller_speed_m_per_min)', () => {
+  const wire = JSON.parse(readFileSync(new URL('../../fixtures/demo-edging-strip.json', import.meta.url), 'utf8'));
+  const check = (process: Record<string, unknown>, range: { min: number; max: number }) => {
+    const mapped = toSchedule({
+      ...wire,
+      process: { ...wire.process, ...process },
+      limits: { ...wire.limits, puller_speed_m_per_min: range },
+    });
+    if (!mapped.ok) throw new Error(JSON.stringify(mapped.problems));
+    return checkSchedule(mapped.schedule);
+  };
+
+  it('a puller that runs 1.8–2.5 m/min cannot hold 1.15 at the three larger orifices (1.75, 1.58, 1.75 m/min)', () => {
+    // v_i = 2 m/min · A_0 / A_i at constant ṁ and draw-down (ṁ = ρ·A·v, docs/MODEL.md §3): 280/320.6 → 1.75,
+    // 280/355.7 → 1.58 m/min, below the 1.8 m/min given
+    const c = check({ puller_follows_area: true }, { min: 1.8, max: 2.5 });
+    const slow = c.findings.filter((f) => f.code === 'PULLER_SPEED_OUT_OF_RANGE');
+    expect(slow.map((f) => f.station)).toEqual([1, 2, 3]);
+    for (const f of slow) {
+      expect(f.limit).toBeCloseTo(1.8, 12);
+      expect(f.value).toBeCloseTo(c.stations[f.station!]!.process.pullerSpeedMPerS * 60, 12);
+      expect(f.message).toContain('(limits.puller_speed_m_per_min)');
+    }
+    expect(slow[1]!.value).toBeCloseTo((2 * c.stations[0]!.areaMm2) / c.stations[2]!.areaMm2, 9);
+    // the range 1.5–2.5 holds them all
+    const wide = check({ puller_follows_area: true }, { min: 1.5, max: 2.5 });
+    expect(codes(wide.findings)).not.toContain('PULLER_SPEED_OUT_OF_RANGE');
+  });
+
+  it('with the puller at the line speed, the 2 m/min line speed is checked once against the range', () => {
+    const c = check({ puller_follows_area: false }, { min: 2.5, max: 10 });
+    const slow = c.findings.filter((f) => f.code === 'PULLER_SPEED_OUT_OF_RANGE');
+    expect(slow).toHaveLength(1);
+    expect(slow[0]).toMatchObject({ value: 2, limit: 2.5 });
+    expect(slow[0]!.station).toBeUndefined();
+    expect(codes(check({ puller_follows_area: false }, { min: 1, max: 10 }).findings)).not.toContain(
+      'PULLER_SPEED_OUT_OF_RANGE',
+    );
+  });
+
+  it('refuses a range whose min exceeds its max, naming the field', () => {
+    const mapped = { ...wire, limits: { ...wire.limits, puller_speed_m_per_min: { min: 5, max: 1 } } };
+    const parsed = ScheduleWire.safeParse(mapped);
+    expect(parsed.success).toBe(false);
+    expect(parsed.error?.issues[0]?.path.join('.')).toBe('limits.puller_speed_m_per_min');
   });
 });
