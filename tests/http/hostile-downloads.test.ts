@@ -28,7 +28,7 @@ describe('a 1 ms time step over a 10 km repeat (both ends of their ranges)', () 
       time_step_s: 0.001,
       repeat_length_m: 10_000,
     });
-  });
+  }, 60_000);
 
   it('the plan is simulated on a coarser grid (capped), not left without its simulation', async () => {
     const plan = (await get(`/v1/plans/${id}`)).body;
@@ -48,5 +48,57 @@ describe('a 1 ms time step over a 10 km repeat (both ends of their ranges)', () 
     const cam = await get(`/v1/plans/${id}/cam-table.csv?points=10001`);
     expect(cam.status).toBe(200);
     expect(cam.text.trim().split('\n')).toHaveLength(10_002);
+  });
+});
+
+describe('conditional requests for downloads that do not exist', () => {
+  let failed = '';
+  let done = '';
+  beforeAll(async () => {
+    const demo = fixture('demo-edging-strip') as { stations: Record<string, unknown>[] };
+    // two stations of one shape: nothing moves, so no chain is fitted and the plan fails
+    failed = await planId({ ...demo, stations: [demo.stations[0], { ...demo.stations[0], position_m: 1 }] });
+    done = await planId(fixture('demo-edging-strip'));
+  }, 60_000);
+
+  it('a refusal carries no ETag, so no client keeps it to revalidate', async () => {
+    for (const path of [
+      `/v1/plans/${failed}/setpoints.csv`,
+      `/v1/plans/${failed}/preview.svg`,
+      `/v1/plans/${done}/plates/plate_99.dxf`,
+      `/v1/plans/${done}/cam-table.csv?points=0`,
+    ]) {
+      const res = await get(path);
+      expect(res.status).toBeGreaterThanOrEqual(400);
+      expect(res.headers.etag).toBeUndefined();
+    }
+  });
+
+  it('If-None-Match: * answers the refusal itself (409, 404, 400), not 304, for GET and HEAD alike', async () => {
+    for (const [path, status] of [
+      [`/v1/plans/${failed}/setpoints.csv`, 409],
+      [`/v1/plans/${failed}/plates.dxf`, 409],
+      [`/v1/plans/${done}/plates/plate_99.dxf`, 404],
+      [`/v1/plans/${done}/cam-table.csv?points=0`, 400],
+    ] as const) {
+      const res = await get(path).set('if-none-match', '*');
+      expect(res.status).toBe(status);
+      expect(res.body.error).toBeDefined();
+      const head = await request(testApp().server).head(path).set('if-none-match', '*');
+      expect(head.status).toBe(status);
+    }
+  });
+
+  it('If-None-Match: * or the ETag sent answers 304 for a download that exists, for GET and HEAD', async () => {
+    const first = await get(`/v1/plans/${done}/setpoints.csv`);
+    expect(first.status).toBe(200);
+    for (const tag of ['*', first.headers.etag as string, `"elsewhere", ${first.headers.etag}`]) {
+      const again = await get(`/v1/plans/${done}/setpoints.csv`).set('if-none-match', tag);
+      expect(again.status).toBe(304);
+      expect(again.text).toBe('');
+      expect(again.headers.etag).toBe(first.headers.etag);
+      const head = await request(testApp().server).head(`/v1/plans/${done}/setpoints.csv`).set('if-none-match', tag);
+      expect(head.status).toBe(304);
+    }
   });
 });

@@ -19,7 +19,7 @@ describe('GET /v1/plans?created_since= with an offset that crosses the ends of t
   beforeAll(async () => {
     id = (await post(demo())).body.id;
     await waitForPlan(testApp(), id);
-  });
+  }, 60_000);
 
   it('9999-12-31T23:59:59-23:59 (year 10000 in UTC) lists no plan, not every plan', async () => {
     const res = await request(server()).get('/v1/plans').query({ created_since: '9999-12-31T23:59:59-23:59' });
