@@ -17,6 +17,7 @@ import type { ApiToken } from './config.js';
 import { ApiTokens, type Principal } from './http/api-tokens.js';
 import { clientErrorAnswer } from './http/client-error-answer.js';
 import { completeOpenapi, openapiInfo, registerComponentSchemas } from './http/build-openapi.js';
+import { securityHeaders } from './http/security-headers.js';
 import { ERROR_CATALOGUE, type ErrorCode, type ErrorDetail, errorBody } from './http/error-catalogue.js';
 import { DownloadSource } from './http/download-source.js';
 import { matchesEtag, planEtag } from './http/plan-gate.js';
@@ -74,6 +75,12 @@ export const SERVER_TIMEOUTS: ServerTimeouts = Object.freeze({
   requestMs: 30_000,
   connectionMs: 120_000,
   keepAliveMs: 5_000,
+});
+
+/** Helmet's options: plain HTTP (TLS ends at a proxy), so no HSTS and no upgrade of a page's requests to https. */
+export const HELMET_OPTIONS = Object.freeze({
+  hsts: false,
+  contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
 });
 
 /** Longest path parameter, characters (a plan id is a 36-character UUID); longer ones answer 404 `not_found`. */
@@ -148,8 +155,10 @@ export async function buildApp(options: AppOptions) {
   app.removeContentTypeParser('text/plain');
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
-  app.addHook('onSend', async (request, reply) => {
+  // hooks that run on every request take a callback: no promise per request
+  app.addHook('onSend', (request, reply, payload, done) => {
     reply.header('x-request-id', request.id);
+    done(null, payload);
   });
 
   const ownStore = options.store === undefined;
@@ -280,10 +289,12 @@ export async function buildApp(options: AppOptions) {
   }
   // security headers; no CORS: browsers on other origins cannot call the API. The service speaks plain HTTP (TLS,
   // where wanted, ends at a proxy), so no HSTS and no upgrade of a page's requests to https
-  await app.register(fastifyHelmet, {
-    global: true,
-    hsts: false,
-    contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
+  // (helmet's headers are worked out once and set on every response; the plugin stays for reply.helmet())
+  await app.register(fastifyHelmet, { global: false, ...HELMET_OPTIONS });
+  const security = securityHeaders(HELMET_OPTIONS);
+  app.addHook('onRequest', (_request, reply, done) => {
+    for (const [name, value] of security) reply.raw.setHeader(name, value);
+    done();
   });
 
   registerComponentSchemas();
@@ -329,31 +340,14 @@ export async function buildApp(options: AppOptions) {
     if (etag) {
       reply.header('etag', etag);
       reply.header('cache-control', 'private, no-cache');
-      // a tag this service sent names a download it answered 200 (errors carry none, below); `*` matches only a
-      // download that exists, so it is judged once the route has answered
-      const ifNoneMatch = request.headers['if-none-match'];
-      if (matchesEtag(ifNoneMatch, etag) && !namesAnyTag(ifNoneMatch)) return reply.code(304).send();
+      if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send();
     }
   });
-  app.addHook('onSend', (request, reply, payload, done) => {
-    const route = request.routeOptions.url;
-    if (route === undefined || !route.startsWith(DOWNLOAD_PREFIX) || reply.statusCode === 304) {
-      return done(null, payload);
-    }
-    if (reply.statusCode !== 200) {
-      // a refusal (no motion, no such part, a bad query) is not a representation to keep or revalidate
-      reply.removeHeader('etag');
-      reply.removeHeader('cache-control');
-      return done(null, payload);
-    }
-    if (!namesAnyTag(request.headers['if-none-match'])) return done(null, payload);
-    reply.code(304);
-    done(null, '');
-  });
-  app.addHook('onResponse', async (request, reply) => {
+  app.addHook('onResponse', (request, reply, done) => {
     if (request.method === 'DELETE' && reply.statusCode === 204 && request.routeOptions.url === '/v1/plans/:id') {
       downloads.forget((request.params as { id: string }).id);
     }
+    done();
   });
 
   const rateLimitOff = { rateLimit: false } as const;
@@ -387,13 +381,6 @@ function send(
   return (reply as ReplyLike)
     .code(ERROR_CATALOGUE[code].status)
     .send({ ...errorBody(code, message, details), request_id: requestId });
-}
-
-/** True when an If-None-Match header lists `*` (any current representation). */
-function namesAnyTag(ifNoneMatch: string | string[] | undefined): boolean {
-  if (ifNoneMatch === undefined) return false;
-  const text = Array.isArray(ifNoneMatch) ? ifNoneMatch.join(',') : ifNoneMatch;
-  return text.split(',').some((t) => t.trim() === '*');
 }
 
 /** A URL as it may appear in a message: at most 80 characters. */

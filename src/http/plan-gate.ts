@@ -8,9 +8,19 @@ import { SERVICE_VERSION } from '../version.js';
  */
 export function planEtag(entry: PlanEntry, resource: string): string | null {
   if (entry.planHash === null) return null;
-  const salt = createHash('sha256').update(`${SERVICE_VERSION}\n${resource}`).digest('hex').slice(0, 12);
+  let salt = salts.get(resource);
+  if (salt === undefined) {
+    salt = createHash('sha256').update(`${SERVICE_VERSION}\n${resource}`).digest('hex').slice(0, 12);
+    // the same few resources are asked for again and again: keep their salts (bounded, oldest dropped)
+    salts.set(resource, salt);
+    if (salts.size > SALTS_KEPT) salts.delete(salts.keys().next().value!);
+  }
   return `"${entry.planHash.slice(0, 32)}-${salt}"`;
 }
+
+/** Resource salts kept, so a tag costs no hash per request. */
+const SALTS_KEPT = 1024;
+const salts = new Map<string, string>();
 
 /** True when an If-None-Match header names `etag` (or is `*`); weak tags compare by their opaque part. */
 export function matchesEtag(ifNoneMatch: string | string[] | undefined, etag: string): boolean {

@@ -27,6 +27,10 @@ import { toCautionWire, toFindingWire } from '../to-check-report.js';
  */
 export const PLAN_BOUNDARY_LIMIT_MM = 20_000;
 
+/** Finished plans' reports kept encoded for GET /v1/plans/{id}, and most bytes they may hold (64 MiB). */
+const SENT_PLANS = 256;
+const SENT_BYTES = 64 * 1024 * 1024;
+
 export interface PlanRouteDeps {
   readonly store: PlanStore;
   readonly jobs: PlanJobs;
@@ -42,6 +46,34 @@ const errors = { 400: ErrorWire, 401: ErrorWire, 403: ErrorWire, 429: ErrorWire 
  */
 export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyPluginAsyncZod {
   return async (app) => {
+    // finished plans never change: their reports are kept encoded with their tags, so a read writes bytes as they
+    // are (no serialiser, no text encoding, no hashing per request); bounded by count and bytes, oldest dropped
+    const sent = new Map<string, { readonly etag: string; readonly body: Buffer }>();
+    let sentBytes = 0;
+    const prepared = (entry: PlanEntry) => {
+      const known = sent.get(entry.id);
+      if (known) return known;
+      const etag = planEtag(entry, 'plan');
+      const report = store.report(entry.id);
+      if (!etag || report === undefined) return undefined;
+      const made = { etag, body: Buffer.from(report, 'utf8') };
+      if (made.body.byteLength <= SENT_BYTES / 8) {
+        sent.set(entry.id, made);
+        sentBytes += made.body.byteLength;
+        while (sent.size > SENT_PLANS || sentBytes > SENT_BYTES) {
+          const oldest = sent.keys().next().value!;
+          sentBytes -= sent.get(oldest)!.body.byteLength;
+          sent.delete(oldest);
+        }
+      }
+      return made;
+    };
+    const forget = (id: string) => {
+      const known = sent.get(id);
+      if (!known) return;
+      sentBytes -= known.body.byteLength;
+      sent.delete(id);
+    };
     const notFound = (id: string, requestId: string) => ({
       ...errorBody('not_found', `No plan with id ${id}.`),
       request_id: requestId,
@@ -189,13 +221,12 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
         if (entry.status === 'queued' || entry.status === 'running') {
           return reply.header('retry-after', String(pollAfterS)).send(pending(entry));
         }
-        const etag = planEtag(entry, 'plan');
-        const report = store.report(id);
-        if (!etag || report === undefined) return reply.code(404).send(notFound(id, request.id));
-        reply.header('etag', etag).header('cache-control', 'private, no-cache');
-        if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send(null);
+        const ready = prepared(entry);
+        if (!ready) return reply.code(404).send(notFound(id, request.id));
+        reply.headers({ etag: ready.etag, 'cache-control': 'private, no-cache' });
+        if (matchesEtag(request.headers['if-none-match'], ready.etag)) return reply.code(304).send(null);
         // stored as sent: the report was written and checked when the plan finished
-        return reply.header('content-type', 'application/json; charset=utf-8').send(report as never);
+        return reply.header('content-type', 'application/json; charset=utf-8').send(ready.body as never);
       },
     );
 
@@ -214,6 +245,7 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
         if (!store.entry(id)) return reply.code(404).send(notFound(id, request.id));
         await jobs.cancel(id);
         store.delete(id);
+        forget(id);
         request.log.info({ plan: id }, 'plan deleted');
         return reply.code(204).send(null);
       },
