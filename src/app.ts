@@ -340,8 +340,26 @@ export async function buildApp(options: AppOptions) {
     if (etag) {
       reply.header('etag', etag);
       reply.header('cache-control', 'private, no-cache');
-      if (matchesEtag(request.headers['if-none-match'], etag)) return reply.code(304).send();
+      // a tag this service sent names a download it answered 200 (errors carry none, below); `*` matches only a
+      // download that exists, so it is judged once the route has answered
+      const ifNoneMatch = request.headers['if-none-match'];
+      if (matchesEtag(ifNoneMatch, etag) && !namesAnyTag(ifNoneMatch)) return reply.code(304).send();
     }
+  });
+  app.addHook('onSend', (request, reply, payload, done) => {
+    const route = request.routeOptions.url;
+    if (route === undefined || !route.startsWith(DOWNLOAD_PREFIX) || reply.statusCode === 304) {
+      return done(null, payload);
+    }
+    if (reply.statusCode !== 200) {
+      // a refusal (no motion, no such part, a bad query) is not a representation to keep or revalidate
+      reply.removeHeader('etag');
+      reply.removeHeader('cache-control');
+      return done(null, payload);
+    }
+    if (!namesAnyTag(request.headers['if-none-match'])) return done(null, payload);
+    reply.code(304);
+    done(null, '');
   });
   app.addHook('onResponse', (request, reply, done) => {
     if (request.method === 'DELETE' && reply.statusCode === 204 && request.routeOptions.url === '/v1/plans/:id') {
@@ -381,6 +399,13 @@ function send(
   return (reply as ReplyLike)
     .code(ERROR_CATALOGUE[code].status)
     .send({ ...errorBody(code, message, details), request_id: requestId });
+}
+
+/** True when an If-None-Match header lists `*` (any current representation). */
+function namesAnyTag(ifNoneMatch: string | string[] | undefined): boolean {
+  if (ifNoneMatch === undefined) return false;
+  const text = Array.isArray(ifNoneMatch) ? ifNoneMatch.join(',') : ifNoneMatch;
+  return text.split(',').some((t) => t.trim() === '*');
 }
 
 /** A URL as it may appear in a message: at most 80 characters. */
