@@ -587,3 +587,148 @@ function parse(text: string): unknown {
     return text;
   }
 }
+
+/** A GET of a finished plan's download with an abused query, path part or header. */
+export interface DownloadCase {
+  /** Which of the plans the test made: a plan that is done, or one that failed (it has no mechanism). */
+  readonly plan: 'done' | 'failed';
+  /** The path below /v1/plans/{id}/, query included, as sent (percent-escapes and all). */
+  readonly path: string;
+  readonly headers: Readonly<Record<string, string>>;
+}
+
+const DOWNLOAD_FILES = [
+  'setpoints.csv',
+  'setpoints.json',
+  'cam-table.csv',
+  'cam-table.json',
+  'puller-speed.csv',
+  'puller-speed.json',
+  'motion.json',
+  'plates.dxf',
+  'die-body.dxf',
+  'stations.dxf',
+  'preview.svg',
+] as const;
+const PART_IDS = [
+  'plate_1',
+  'plate_4',
+  'link_1',
+  'plate_0',
+  'plate_-1',
+  'plate_99999999999999999999',
+  'slider_start',
+  'plate_1_slide',
+  '..',
+  '%2e%2e',
+  '%2F',
+  '%00',
+  '__proto__',
+  'constructor',
+  'a'.repeat(101),
+];
+const QUERY_KEYS = ['points', 'motion', 'dimensions', 'x', '__proto__', 'points[]'];
+const QUERY_VALUES = [
+  '0',
+  '-1',
+  '1',
+  '2',
+  '1e9',
+  '10001',
+  '10002',
+  '000101',
+  '2.0',
+  'abc',
+  '',
+  'hot',
+  'cold',
+  'law',
+  'tracked',
+  '%00',
+  '%E2%88%9E',
+  '%zz',
+  'x'.repeat(500),
+];
+const IF_NONE_MATCH = ['*', '"x"', 'W/"x"', '', ',,', '"x", *', ' * '];
+
+/** Downloads of a done or failed plan with 0–3 abused query parameters (repeated keys too) and odd headers. */
+export const downloadRequest: fc.Arbitrary<DownloadCase> = fc
+  .record({
+    plan: fc.constantFrom('done' as const, 'failed' as const),
+    file: fc.oneof(
+      fc.constantFrom(...DOWNLOAD_FILES),
+      fc
+        .oneof(
+          fc.constantFrom(...PART_IDS),
+          fc.string({ maxLength: 20 }).map((s) => encodeURIComponent(s)),
+        )
+        .map((part) => `plates/${part}.dxf`),
+    ),
+    query: fc.array(
+      fc.tuple(
+        fc.constantFrom(...QUERY_KEYS),
+        fc.oneof(
+          fc.constantFrom(...QUERY_VALUES),
+          fc.string({ maxLength: 12 }).map((s) => encodeURIComponent(s)),
+        ),
+      ),
+      { maxLength: 3 },
+    ),
+    ifNoneMatch: fc.option(fc.constantFrom(...IF_NONE_MATCH), { nil: undefined }),
+    accept: fc.option(fc.constantFrom('text/csv', 'application/xml', '*/*;q=0', ''), { nil: undefined }),
+  })
+  .map(({ plan, file, query, ifNoneMatch, accept }) => ({
+    plan,
+    path: query.length === 0 ? file : `${file}?${query.map(([k, v]) => `${k}=${v}`).join('&')}`,
+    headers: {
+      ...(ifNoneMatch === undefined ? {} : { 'if-none-match': ifNoneMatch }),
+      ...(accept === undefined ? {} : { accept }),
+    },
+  }));
+
+/** The answer to a download request, and the same request without If-None-Match when it was answered 304. */
+export interface DownloadAnswer {
+  readonly status: number;
+  readonly headers: Readonly<Record<string, unknown>>;
+  readonly body: unknown;
+  readonly unconditionalStatus?: number;
+}
+
+/**
+ * What every download answer must show; returns the broken promise in words, or null. No 5xx; a 4xx speaks the
+ * catalogue and carries no ETag (a refusal is nothing to revalidate); a 304 only where the same request without
+ * If-None-Match answers 200.
+ */
+export function brokenDownloadPromise(a: DownloadAnswer): string | null {
+  if (a.status >= 500) return `answered ${a.status}: ${JSON.stringify(a.body)}`;
+  if (a.status === 304) {
+    return a.unconditionalStatus === 200 ? null : `304 for a download that answers ${a.unconditionalStatus}`;
+  }
+  if (a.status >= 400) {
+    const body = a.body as Record<string, unknown>;
+    const code = body.error as keyof typeof ERROR_CATALOGUE;
+    if (!Object.hasOwn(ERROR_CATALOGUE, code)) return `error code ${String(code)} is not in the catalogue`;
+    if (ERROR_CATALOGUE[code].status !== a.status) return `${code} came with ${a.status}`;
+    if (typeof body.message !== 'string' || body.message === '') return 'an error without a message';
+    if (typeof body.request_id !== 'string') return 'an error without request_id';
+    if (!Array.isArray(body.details)) return 'an error without details';
+    if (a.headers.etag !== undefined) return `a ${a.status} with an ETag`;
+    return null;
+  }
+  return a.status === 200 ? null : `answered ${a.status}`;
+}
+
+/** Sends one download case for the plan ids given; a 304 is asked again without If-None-Match. */
+export async function downloadAnswer(
+  server: Pick<App, 'inject'>,
+  ids: Readonly<Record<DownloadCase['plan'], string>>,
+  c: DownloadCase,
+): Promise<DownloadAnswer> {
+  const url = `/v1/plans/${ids[c.plan]}/${c.path}`;
+  const res = await server.inject({ method: 'GET', url, headers: { ...c.headers } });
+  const answer = { status: res.statusCode, headers: res.headers, body: parse(res.body) };
+  if (res.statusCode !== 304) return answer;
+  const { 'if-none-match': _, ...rest } = c.headers;
+  const again = await server.inject({ method: 'GET', url, headers: rest });
+  return { ...answer, unconditionalStatus: again.statusCode };
+}
