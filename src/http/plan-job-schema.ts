@@ -59,15 +59,42 @@ export const PlanListWire = z
   })
   .describe('a page of plans');
 
+/** A query parameter's message when it is not one value of its kind (also when it is given twice). */
+const once = (what: string) => ({ error: `${what}, given once` });
+const LIMIT_ERROR = once('limit is a whole number of plans per page from 1 to 200');
+
 export const PlanListQueryWire = z.object({
-  status: PlanStatusWire.optional().describe('only plans with this status'),
-  name: z.string().min(1).max(200).optional().describe('only plans of schedules with exactly this name'),
+  status: z
+    .enum(PlanStatusWire.options, once('status is one of queued, running, done, incomplete or failed'))
+    .optional()
+    .describe('only plans with this status'),
+  name: z
+    .string(once('name is the schedule name as text'))
+    .min(1, { error: 'name is empty: leave it out to list every name' })
+    .max(200, { error: 'name is at most 200 characters, as a schedule name is' })
+    .optional()
+    .describe('only plans of schedules with exactly this name'),
   created_since: z.iso
-    .datetime({ offset: true })
+    .datetime({
+      offset: true,
+      ...once(
+        'created_since is an ISO 8601 time with its zone, e.g. 2026-12-02T10:00:00Z or 2026-12-02T11:00:00+01:00',
+      ),
+    })
     .optional()
     .describe('only plans created at or after this time (ISO 8601, e.g. 2026-12-02T10:00:00Z)'),
-  limit: z.coerce.number().int().min(1).max(200).default(50).describe('plans per page, 1–200 (default 50)'),
-  cursor: z.string().max(400).optional().describe('next_cursor of the previous page'),
+  limit: z.coerce
+    .number(LIMIT_ERROR)
+    .int(LIMIT_ERROR)
+    .min(1, LIMIT_ERROR)
+    .max(200, LIMIT_ERROR)
+    .default(50)
+    .describe('plans per page, 1–200 (default 50)'),
+  cursor: z
+    .string(once('cursor is next_cursor of the previous page'))
+    .max(400, { error: 'cursor is next_cursor of the previous page, as given (at most 400 characters)' })
+    .optional()
+    .describe('next_cursor of the previous page'),
 });
 
 export const PlanIdParamsWire = z.object({ id: z.string().describe('plan id from POST /v1/plans') });

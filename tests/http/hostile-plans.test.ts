@@ -34,6 +34,39 @@ describe('GET /v1/plans?created_since= with an offset that crosses the ends of t
   });
 });
 
+describe('GET /v1/plans with query parameters that are not one value of their kind', () => {
+  it('each answers 400 malformed_request naming the parameter in a plain sentence', async () => {
+    const limit = 'limit is a whole number of plans per page from 1 to 200, given once';
+    for (const [query, path, message] of [
+      ['limit=0', 'limit', limit],
+      ['limit=1e9', 'limit', limit],
+      ['limit=abc', 'limit', limit],
+      ['limit=2.5', 'limit', limit],
+      ['limit=', 'limit', limit],
+      ['limit=1&limit=2', 'limit', limit],
+      ['status=bogus', 'status', 'status is one of queued, running, done, incomplete or failed, given once'],
+      [
+        'status=done&status=failed',
+        'status',
+        'status is one of queued, running, done, incomplete or failed, given once',
+      ],
+      ['name=', 'name', 'name is empty: leave it out to list every name'],
+      ['name=a&name=b', 'name', 'name is the schedule name as text, given once'],
+      [
+        'created_since=yesterday',
+        'created_since',
+        'created_since is an ISO 8601 time with its zone, e.g. 2026-12-02T10:00:00Z or 2026-12-02T11:00:00+01:00, given once',
+      ],
+      ['cursor=a&cursor=b', 'cursor', 'cursor is next_cursor of the previous page, given once'],
+    ] as const) {
+      const res = await request(server()).get(`/v1/plans?${query}`);
+      expect(res.status, query).toBe(400);
+      expect(res.body.error).toBe('malformed_request');
+      expect(res.body.details, query).toEqual([{ path, message }]);
+    }
+  });
+});
+
 describe('Idempotency-Key and DELETE under concurrent use', () => {
   it('eight posts of one schedule with one key at once make one plan, answered 202 with its id every time', async () => {
     const answers = await Promise.all(Array.from({ length: 8 }, () => post(demo(), 'hostile-same-key')));
