@@ -76,21 +76,25 @@ export default function runTask(
     });
     // every download the plan offers, rendered here from the plan as the store gives it back, so the files are the
     // bytes a later render from the store makes, and stored with the result in one transaction
-    task.progress?.postMessage({ stage: 'drawings', fraction: 0.97 });
     let artifacts: StoredArtifact[] | undefined;
     let renderError: string | null = null;
-    try {
-      const stored = {
-        kind: 'render' as const,
-        id: task.id,
-        createdAt: task.createdAt,
-        scheduleJson: encodeJson(task.schedule),
-        planJson: written.result.planJson,
-        planHash: written.result.planHash,
-      };
-      artifacts = renderDownloads(storedRecord(stored), stored.planHash);
-    } catch (err) {
-      renderError = err instanceof Error ? err.message : String(err);
+    // a plan that took long already (a large one near the job's hard limit) is stored at once: its downloads are
+    // then rendered by a worker when first asked for, rather than risk the hard limit failing a finished plan
+    const late = performance.now() - started > RENDER_WITHIN_TIME_LIMITS * task.timeLimitS * 1000;
+    if (!late) {
+      task.progress?.postMessage({ stage: 'drawings', fraction: 0.97 });
+      try {
+        const stored = {
+          id: task.id,
+          createdAt: task.createdAt,
+          scheduleJson: encodeJson(task.schedule),
+          planJson: written.result.planJson,
+          planHash: written.result.planHash,
+        };
+        artifacts = renderDownloads(storedRecord(stored), stored.planHash);
+      } catch (err) {
+        renderError = err instanceof Error ? err.message : String(err);
+      }
     }
     return {
       ...written,
@@ -103,6 +107,9 @@ export default function runTask(
     task.progress?.close();
   }
 }
+
+/** A plan renders its downloads with it only when it finished within this many times PLAN_TIME_LIMIT_S. */
+const RENDER_WITHIN_TIME_LIMITS = 2;
 
 /** The plan record a render task names, decoded as the store decodes it. */
 function storedRecord(task: Omit<RenderTask, 'kind' | 'names'>): PlanRecord {
