@@ -65,7 +65,14 @@ export class DownloadSource {
   /** Renders downloads in a worker and keeps them; resolves with the first. */
   private async render(id: string, names: readonly string[] | undefined): Promise<CachedDownload> {
     const text = this.store.resultText(id);
-    if (!text) throw new Error(`plan ${id} has no stored result`);
+    if (!text) {
+      // deleted while the request was on its way
+      return {
+        body: Buffer.from(`No plan with id ${id}.`),
+        headers: { 'content-type': 'application/json; charset=utf-8' },
+        refusal: 'not_found',
+      };
+    }
     const rendered = await this.pool.render({ id, ...text, ...(names ? { names } : {}) });
     const artifacts: StoredArtifact[] = rendered.map((r) => ({ ...r, body: asBuffer(r.body) }));
     if (names === undefined) this.store.addArtifacts(id, artifacts);
