@@ -32,9 +32,10 @@ const followingDemo = () => {
 
 describe('puller-speed table and re-timed setpoints (process.puller_follows_area)', () => {
   let id = '';
+  // a plan computed and its downloads rendered on a shared machine: more than the default 10 s hook limit
   beforeAll(async () => {
     id = await planId(followingDemo());
-  });
+  }, 60_000);
 
   it('puller-speed.csv read back with csv-parse equals puller-speed.json: 101 strictly increasing positions, closing on itself', async () => {
     const res = await get(`/v1/plans/${id}/puller-speed.csv`);
@@ -121,7 +122,7 @@ describe('motion.json for the review page', () => {
     const res = await get(`/v1/plans/${id}/motion.json`);
     expect(res.status).toBe(200);
     view = res.body;
-  });
+  }, 60_000);
 
   it('carries the schedule’s draw-down range and the pressure-rise limit, so the page draws them unbroken', () => {
     // the demo schedule's limits.draw_down as posted (fixtures/demo-edging-strip.json), not a default
