@@ -14,7 +14,6 @@ export interface Principal {
  */
 export class ApiTokens {
   private readonly digests: readonly { readonly principal: Principal; readonly digest: Buffer }[];
-  private readonly recognised = new Map<string, Principal>();
 
   constructor(tokens: readonly ApiToken[]) {
     this.digests = tokens.map((t) => ({ principal: { name: t.name, scope: t.scope }, digest: sha256(t.token) }));
@@ -28,25 +27,14 @@ export class ApiTokens {
   /** The principal of an Authorization header, or null when it carries no known bearer token. */
   identify(header: string | undefined): Principal | null {
     if (header === undefined) return null;
-    // a header that named a token once names it again: no hash per request for the clients the service knows
-    // (only matches are kept, so an unknown token always takes the full comparison below)
-    const known = this.recognised.get(header);
-    if (known !== undefined) return known;
     const match = /^Bearer[ \t]+(\S{1,512})[ \t]*$/i.exec(header);
     if (!match) return null;
     const presented = sha256(match[1]!);
     let found: Principal | null = null;
     for (const d of this.digests) if (timingSafeEqual(d.digest, presented) && found === null) found = d.principal;
-    if (found !== null) {
-      this.recognised.set(header, found);
-      if (this.recognised.size > RECOGNISED_HEADERS) this.recognised.delete(this.recognised.keys().next().value!);
-    }
     return found;
   }
 }
-
-/** Authorization headers remembered as naming a known token (a few per client), oldest dropped. */
-const RECOGNISED_HEADERS = 256;
 
 function sha256(text: string): Buffer {
   return createHash('sha256').update(text, 'utf8').digest();
