@@ -18,7 +18,7 @@ describe('GET /v1/plans/{id} of a finished plan, sent as kept', () => {
     expect(first.headers.etag).toMatch(/^"[0-9a-f]{32}-[0-9a-f]{12}"$/);
     expect(second.headers.etag).toBe(first.headers.etag);
     expect(first.body.cautions.length).toBeGreaterThan(0);
-    const again = await request(app.server).get(`/v1/plans/${id}`).set('if-none-match', first.headers.etag);
+    const again = await request(app.server).get(`/v1/plans/${id}`).set('if-none-match', String(first.headers.etag));
     expect(again.status).toBe(304);
     expect((await request(app.server).delete(`/v1/plans/${id}`)).status).toBe(204);
     const gone = await request(app.server).get(`/v1/plans/${id}`);
