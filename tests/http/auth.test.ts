@@ -3,6 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createLogger } from '../../src/logger.js';
 import { makeTestApp } from '../support/test-app.js';
+import { stripSchedule } from '../support/strip-schedule.js';
 
 /**
  * API tokens (API_TOKENS="name:scope:token"): Bearer authentication (RFC 6750) on every /v1 route, read and write
@@ -31,32 +32,7 @@ afterAll(async () => {
   await app.close();
 });
 
-const schedule = JSON.stringify({
-  stations: [
-    {
-      position_m: 0,
-      orifice: {
-        outer: [
-          [0, 0],
-          [40, 0],
-          [40, 8],
-          [0, 8],
-        ],
-      },
-    },
-    {
-      position_m: 0.5,
-      orifice: {
-        outer: [
-          [0, 0],
-          [40, 0],
-          [40, 10],
-          [0, 10],
-        ],
-      },
-    },
-  ],
-});
+const schedule = JSON.stringify(stripSchedule(10, 'unnamed-schedule'));
 const postPlan = (token?: string) => {
   const r = request(app.server).post('/v1/plans').set('content-type', 'application/json');
   return (token ? r.set('authorization', `Bearer ${token}`) : r).send(schedule);

@@ -2,6 +2,7 @@ import { parse } from 'csv-parse/sync';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { fixture, useTestApp, waitForPlan } from '../support/test-app.js';
+import { stripSchedule } from '../support/strip-schedule.js';
 
 /**
  * Plans as background jobs over HTTP, end to end on the demo (fixtures/demo-edging-strip.json): 202 with Location
@@ -16,33 +17,7 @@ const post = (body: unknown, headers: Record<string, string> = {}) =>
     .set({ 'content-type': 'application/json', ...headers })
     .send(typeof body === 'string' ? body : JSON.stringify(body));
 
-const tiny = (h: number, name = 'tiny-strip') => ({
-  name,
-  stations: [
-    {
-      position_m: 0,
-      orifice: {
-        outer: [
-          [0, 0],
-          [40, 0],
-          [40, 8],
-          [0, 8],
-        ],
-      },
-    },
-    {
-      position_m: 0.5,
-      orifice: {
-        outer: [
-          [0, 0],
-          [40, 0],
-          [40, h],
-          [0, h],
-        ],
-      },
-    },
-  ],
-});
+const tiny = (h: number, name = 'tiny-strip') => stripSchedule(h, name);
 
 describe('POST /v1/plans queues; GET shows the job, then the plan', () => {
   it('answers 202 with Location, schedule hash and cautions before planning; polls to done; downloads the CSV and reads it back', async () => {

@@ -4,6 +4,7 @@ import { pino } from 'pino';
 import { type Browser, chromium, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/app.js';
+import { stripSchedule } from '../support/strip-schedule.js';
 
 /**
  * The review page in a real browser (Debian's chromium, never downloaded): the service listens on a loopback port,
@@ -14,33 +15,7 @@ const hasChromium = existsSync(CHROMIUM);
 const OUT = new URL('../../.ci/out/', import.meta.url);
 const FINISHED = new Set(['done', 'incomplete', 'failed']);
 /** The smallest plan request (README): a 40 mm strip whose top rises from 8 to 12 mm; it plans in well under a second. */
-const SMALL_SCHEDULE = {
-  name: 'small-strip',
-  stations: [
-    {
-      position_m: 0,
-      orifice: {
-        outer: [
-          [0, 0],
-          [40, 0],
-          [40, 8],
-          [0, 8],
-        ],
-      },
-    },
-    {
-      position_m: 0.5,
-      orifice: {
-        outer: [
-          [0, 0],
-          [40, 0],
-          [40, 12],
-          [0, 12],
-        ],
-      },
-    },
-  ],
-};
+const SMALL_SCHEDULE = stripSchedule(12);
 /** How far a drawn pin may lie from the plan's position, mm (the drawing keeps 0.1 µm). */
 const TOLERANCE_MM = 1e-3;
 
