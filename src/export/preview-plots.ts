@@ -76,16 +76,21 @@ export function previewPlots(plan: Plan, schedule: Schedule): PreviewPlots {
     series.push({ label: 'station values', points: a.stationValues.map((v, i) => [x[i]!, v]), dots: true });
     plots.push({ title: `${a.id} (${a.kind}, joint ${a.joint})`, unit, series, limits: [] });
     if (trajectory) {
-      // speed at the nominal line speed, against the schedule's actuator speed limit (both directions)
+      // speed against the schedule's actuator speed limit (both directions): the trajectory is timed by the nominal
+      // line speed; when the puller follows the area the line runs at the puller's speed, so the actuator's speed
+      // scales with it (dθ/dt = dθ/dx · v)
       const rotary = a.kind === 'rotary';
       const limit = rotary ? toDegrees(schedule.actuators.maxSpeedRadPerS) : schedule.actuators.maxSpeedMmPerS;
+      const puller = plan.simulation?.pullerFollowsArea ? plan.simulation : null;
+      const nominal = schedule.process.lineSpeedMPerS;
       const points = Array.from({ length: PREVIEW_SAMPLES }, (_, j): [number, number] => {
         const at = fromM + ((toM - fromM) * j) / (PREVIEW_SAMPLES - 1);
-        const v = sampleTrajectory(trajectory, at).velocityPerS;
+        const scale = puller ? linearAt(puller.positionsM, puller.pullerSpeedMPerS, at) / nominal : 1;
+        const v = sampleTrajectory(trajectory, at).velocityPerS * scale;
         return [at, rotary ? toDegrees(v) : v];
       });
       plots.push({
-        title: `${a.id} speed at the nominal line speed`,
+        title: `${a.id} speed ${puller ? 'with the puller following the area' : 'at the nominal line speed'}`,
         unit: `${unit}/s`,
         series: [{ label: 'speed', points, dots: false }],
         limits: [
@@ -175,4 +180,21 @@ function findingMarks(plan: Plan, x: readonly number[]): PreviewPlots['marks'] {
     if (at === undefined || f.severity === 'info') return [];
     return [{ positionM: at, toPositionM: f.toPositionM ?? null, code: f.code, severity: f.severity }];
   });
+}
+
+/** Linear interpolation of `ys` over increasing `xs` at `x`, held at the ends. */
+function linearAt(xs: readonly number[], ys: readonly number[], x: number): number {
+  const n = xs.length;
+  if (n === 0) return Number.NaN;
+  if (x <= xs[0]!) return ys[0]!;
+  if (x >= xs[n - 1]!) return ys[n - 1]!;
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid]! <= x) lo = mid;
+    else hi = mid;
+  }
+  const t = (x - xs[lo]!) / (xs[hi]! - xs[lo]!);
+  return ys[lo]! + t * (ys[hi]! - ys[lo]!);
 }

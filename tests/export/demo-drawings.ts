@@ -5,9 +5,13 @@ import { drawingModel } from '../../src/export/index.js';
 import { toSchedule } from '../../src/http/to-schedule.js';
 import { type Plan, planSchedule } from '../../src/pipeline/index.js';
 
-/** The demo schedule (fixtures/demo-edging-strip.json) planned with planSchedule, and its drawing model. */
-export function planDemo() {
+/**
+ * The demo schedule (fixtures/demo-edging-strip.json) planned with planSchedule, and its drawing model;
+ * `pullerFollowsArea` overrides the demo's own `process.puller_follows_area` (true).
+ */
+export function planDemo(pullerFollowsArea?: boolean) {
   const wire = JSON.parse(readFileSync(new URL('../../fixtures/demo-edging-strip.json', import.meta.url), 'utf8'));
+  if (pullerFollowsArea !== undefined) wire.process = { ...wire.process, puller_follows_area: pullerFollowsArea };
   const mapped = toSchedule(wire);
   if (!mapped.ok) throw new Error(JSON.stringify(mapped.problems));
   const plan: Plan = planSchedule(mapped.schedule);

@@ -63,10 +63,29 @@ describe('preview.svg of the demo plan', () => {
     });
   });
 
-  it('the actuator speed curve peaks at 2h/T on each transition (cycloidal law, VDI 2143), below the 60 °/s limit', () => {
-    // cycloidal rest-to-rest: peak speed 2h/T, h the transition's rise, T its duration at the nominal line speed
+  it('with the puller following the area, the actuator speed peaks between 2h/L·v at the slowest and fastest puller speed of the transition (cycloidal law, VDI 2143, times dx/dt)', () => {
+    // cycloidal in line position: peak slope 2h/L at mid-transition (L its length); dθ/dt = dθ/dx · v(x) with v the
+    // puller speed, so the peak lies between 2h/L·v_min and 2h/L·v_max over the transition
+    expect(plots.plots[1]!.title).toBe('actuator_1 speed with the puller following the area');
     const speed = plots.plots[1]!.series[0]!.points;
     const values = plan.mechanism!.actuators[0]!.stationValues;
+    const x = schedule.stations.map((s) => s.positionM);
+    const sim = plan.simulation!;
+    const puller = sim.pullerSpeedMPerS.filter((_, i) => sim.positionsM[i]! >= x[0]! && sim.positionsM[i]! <= x[1]!);
+    const slope = (2 * Math.abs(values[1]! - values[0]!)) / (x[1]! - x[0]!);
+    const peak = Math.max(...speed.filter((p) => p[0] >= x[0]! && p[0] <= x[1]!).map((p) => Math.abs(p[1])));
+    expect(Math.min(...puller)).toBeLessThan(Math.max(...puller)); // the puller does change speed here
+    expect(peak).toBeLessThanOrEqual(slope * Math.max(...puller) + 1e-9);
+    expect(peak).toBeGreaterThan(0.995 * slope * Math.min(...puller));
+  });
+
+  it('at the nominal line speed the actuator speed curve peaks at 2h/T on each transition (cycloidal law, VDI 2143), below the 60 °/s limit', () => {
+    // cycloidal rest-to-rest: peak speed 2h/T, h the transition's rise, T its duration at the nominal line speed
+    const atLineSpeed = planDemo(false);
+    const lineSpeedPlots = previewPlots(atLineSpeed.plan, atLineSpeed.schedule);
+    expect(lineSpeedPlots.plots[1]!.title).toBe('actuator_1 speed at the nominal line speed');
+    const speed = lineSpeedPlots.plots[1]!.series[0]!.points;
+    const values = atLineSpeed.plan.mechanism!.actuators[0]!.stationValues;
     const v = schedule.process.lineSpeedMPerS;
     const x = schedule.stations.map((s) => s.positionM);
     const h = Math.abs(values[1]! - values[0]!);
