@@ -1,7 +1,7 @@
 import type { Schedule } from '../domain/index.js';
 import { regionArea } from '../geometry/index.js';
 import { sampleTrajectory } from '../motion/index.js';
-import { toDegrees } from '../numeric/index.js';
+import { interpolateLinear, toDegrees } from '../numeric/index.js';
 import type { Plan } from '../pipeline/index.js';
 import { formatNumber } from './format-number.js';
 
@@ -85,7 +85,7 @@ export function previewPlots(plan: Plan, schedule: Schedule): PreviewPlots {
       const nominal = schedule.process.lineSpeedMPerS;
       const points = Array.from({ length: PREVIEW_SAMPLES }, (_, j): [number, number] => {
         const at = fromM + ((toM - fromM) * j) / (PREVIEW_SAMPLES - 1);
-        const scale = puller ? linearAt(puller.positionsM, puller.pullerSpeedMPerS, at) / nominal : 1;
+        const scale = puller ? interpolateLinear(puller.positionsM, puller.pullerSpeedMPerS, at) / nominal : 1;
         const v = sampleTrajectory(trajectory, at).velocityPerS * scale;
         return [at, rotary ? toDegrees(v) : v];
       });
@@ -180,21 +180,4 @@ function findingMarks(plan: Plan, x: readonly number[]): PreviewPlots['marks'] {
     if (at === undefined || f.severity === 'info') return [];
     return [{ positionM: at, toPositionM: f.toPositionM ?? null, code: f.code, severity: f.severity }];
   });
-}
-
-/** Linear interpolation of `ys` over increasing `xs` at `x`, held at the ends. */
-function linearAt(xs: readonly number[], ys: readonly number[], x: number): number {
-  const n = xs.length;
-  if (n === 0) return Number.NaN;
-  if (x <= xs[0]!) return ys[0]!;
-  if (x >= xs[n - 1]!) return ys[n - 1]!;
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (xs[mid]! <= x) lo = mid;
-    else hi = mid;
-  }
-  const t = (x - xs[lo]!) / (xs[hi]! - xs[lo]!);
-  return ys[lo]! + t * (ys[hi]! - ys[lo]!);
 }

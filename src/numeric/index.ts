@@ -3,3 +3,4 @@ export { RAD_PER_DEG, toRadians, toDegrees, wrapAngle, safeAcos } from './angles
 export { BandLu } from './band-lu.js';
 export { reverseCuthillMcKee } from './reverse-cuthill-mckee.js';
 export * from './levenberg-marquardt.js';
+export { interpolateLinear } from './interpolate-linear.js';

@@ -1,5 +1,6 @@
 import { type ActuatorTrajectory, sampleTrajectory, setpointTable, timeStepsOver } from '../motion/index.js';
 import { productAreaMm2, pullerSpeedForDrawDown } from '../process/index.js';
+import { interpolateLinear } from '../numeric/index.js';
 import type { PlanMotion } from './plan-motion.js';
 import type { PlanSimulation } from './plan-simulation.js';
 
@@ -156,17 +157,4 @@ function column(t: ActuatorTrajectory, positionsM: readonly number[], periodic: 
 }
 
 /** Linear interpolation of ys over increasing xs at x (clamped to the ends), by bisection. */
-export function interpolate(xs: readonly number[], ys: readonly number[], x: number): number {
-  const n = xs.length;
-  if (x <= xs[0]!) return ys[0]!;
-  if (x >= xs[n - 1]!) return ys[n - 1]!;
-  let lo = 0;
-  let hi = n - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (xs[mid]! <= x) lo = mid;
-    else hi = mid;
-  }
-  const t = (x - xs[lo]!) / (xs[hi]! - xs[lo]!);
-  return ys[lo]! + t * (ys[hi]! - ys[lo]!);
-}
+export const interpolate = interpolateLinear;
