@@ -1,3 +1,4 @@
+import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import {
@@ -46,6 +47,20 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
       request_id: requestId,
     });
 
+    type Ask = { params: { id: string }; id: string };
+    /** A download with `?points=N` (cam and puller tables): 400 for a bad count, else the table with that many rows. */
+    const sendWithPoints = (name: string, request: Ask & { query: { points?: string } }, reply: FastifyReply) => {
+      const n = points(request.query.points);
+      if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
+      return sendDownload(source, reply, request.id, request.params.id, downloadKey(name, { points: n }));
+    };
+    /** A setpoint download with `?motion=law|tracked`: 400 for another value. */
+    const sendWithMotion = (name: string, request: Ask & { query: { motion?: string } }, reply: FastifyReply) => {
+      const tracked = trackedOf(request.query.motion);
+      if (tracked === null) return reply.code(400).send(badMotion(request.query.motion ?? '', request.id));
+      return sendDownload(source, reply, request.id, request.params.id, downloadKey(name, { tracked }));
+    };
+
     const csvResponse = { 200: CsvText, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire };
     app.get(
       '/v1/plans/:id/setpoints.csv',
@@ -61,11 +76,7 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
           response: csvResponse,
         },
       },
-      async (request, reply) => {
-        const tracked = trackedOf(request.query.motion);
-        if (tracked === null) return reply.code(400).send(badMotion(request.query.motion ?? '', request.id));
-        return sendDownload(source, reply, request.id, request.params.id, downloadKey('setpoints.csv', { tracked }));
-      },
+      async (request, reply) => sendWithMotion('setpoints.csv', request, reply),
     );
     app.get(
       '/v1/plans/:id/setpoints.json',
@@ -78,11 +89,7 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
           response: { 200: SetpointsWire, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire },
         },
       },
-      async (request, reply) => {
-        const tracked = trackedOf(request.query.motion);
-        if (tracked === null) return reply.code(400).send(badMotion(request.query.motion ?? '', request.id));
-        return sendDownload(source, reply, request.id, request.params.id, downloadKey('setpoints.json', { tracked }));
-      },
+      async (request, reply) => sendWithMotion('setpoints.json', request, reply),
     );
     app.get(
       '/v1/plans/:id/cam-table.csv',
@@ -98,11 +105,7 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
           response: csvResponse,
         },
       },
-      async (request, reply) => {
-        const n = points(request.query.points);
-        if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
-        return sendDownload(source, reply, request.id, request.params.id, downloadKey('cam-table.csv', { points: n }));
-      },
+      async (request, reply) => sendWithPoints('cam-table.csv', request, reply),
     );
     app.get(
       '/v1/plans/:id/cam-table.json',
@@ -115,11 +118,7 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
           response: { 200: CamTableWire, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire },
         },
       },
-      async (request, reply) => {
-        const n = points(request.query.points);
-        if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
-        return sendDownload(source, reply, request.id, request.params.id, downloadKey('cam-table.json', { points: n }));
-      },
+      async (request, reply) => sendWithPoints('cam-table.json', request, reply),
     );
     app.get(
       '/v1/plans/:id/puller-speed.csv',
@@ -135,17 +134,7 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
           response: csvResponse,
         },
       },
-      async (request, reply) => {
-        const n = points(request.query.points);
-        if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
-        return sendDownload(
-          source,
-          reply,
-          request.id,
-          request.params.id,
-          downloadKey('puller-speed.csv', { points: n }),
-        );
-      },
+      async (request, reply) => sendWithPoints('puller-speed.csv', request, reply),
     );
     app.get(
       '/v1/plans/:id/puller-speed.json',
@@ -158,17 +147,7 @@ export function planDownloadRoutes(source: DownloadSource): FastifyPluginAsyncZo
           response: { 200: PullerTableWire, 400: ErrorWire, 404: ErrorWire, 409: ErrorWire },
         },
       },
-      async (request, reply) => {
-        const n = points(request.query.points);
-        if (n === null) return reply.code(400).send(badPoints(request.query.points ?? '', request.id));
-        return sendDownload(
-          source,
-          reply,
-          request.id,
-          request.params.id,
-          downloadKey('puller-speed.json', { points: n }),
-        );
-      },
+      async (request, reply) => sendWithPoints('puller-speed.json', request, reply),
     );
     app.get(
       '/v1/plans/:id/motion.json',
