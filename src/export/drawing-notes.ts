@@ -1,4 +1,4 @@
-import type { Point, Ring } from '../geometry/index.js';
+import { type BoundingBox, boundingBox, type Point, type Ring } from '../geometry/index.js';
 import type { DrawingModel, DrawnPart } from './drawing-model.js';
 import { type DxfBuilder, wrapText } from './dxf-builder.js';
 import { formatNumber } from './format-number.js';
@@ -55,21 +55,13 @@ export function place(p: Point, factor: number, offset: Point = [0, 0]): Point {
   return [p[0] * factor + offset[0], p[1] * factor + offset[1]];
 }
 
-/** Bounding box of rings. */
-export function boxOf(rings: readonly Ring[]): { minX: number; minY: number; maxX: number; maxY: number } {
-  let minX = Number.POSITIVE_INFINITY;
-  let minY = Number.POSITIVE_INFINITY;
-  let maxX = Number.NEGATIVE_INFINITY;
-  let maxY = Number.NEGATIVE_INFINITY;
-  for (const ring of rings) {
-    for (const [x, y] of ring) {
-      minX = Math.min(minX, x);
-      minY = Math.min(minY, y);
-      maxX = Math.max(maxX, x);
-      maxY = Math.max(maxY, y);
-    }
+/** Bounding box of rings (geometry's boundingBox over all their points); infinite bounds when there are none. */
+export function boxOf(rings: readonly Ring[]): BoundingBox {
+  const points = rings.flat();
+  if (points.length === 0) {
+    return { minX: Infinity, minY: Infinity, maxX: -Infinity, maxY: -Infinity };
   }
-  return { minX, minY, maxX, maxY };
+  return boundingBox(points);
 }
 
 /** A part's description in words, one line: id, kind, stack layer, thickness, holes. */

@@ -1,6 +1,6 @@
 import type { Point, Region, Ring } from '../geometry/index.js';
 import type { DrawingModel } from './drawing-model.js';
-import { cautionLines } from './drawing-notes.js';
+import { boxOf, cautionLines } from './drawing-notes.js';
 import { wrapText } from './dxf-builder.js';
 import { formatNumber } from './format-number.js';
 import type { LinePlot, PreviewPlots } from './preview-plots.js';
@@ -51,7 +51,7 @@ export function writePreviewSvg(model: DrawingModel, plots: PreviewPlots): strin
   // station panels: one scale for all, fitted to the opening and every part at every station
   const rings: Ring[] = [model.opening.outer];
   for (const s of model.stations) for (const p of s.parts) rings.push(p.outline);
-  const box = bounds(rings);
+  const box = boxOf(rings);
   const panelWidth = (WIDTH - 2 * MARGIN) / PANEL_COLUMNS;
   const inner = { w: panelWidth - 16, h: PANEL_HEIGHT - 40 };
   const scale = Math.min(inner.w / (box.maxX - box.minX), inner.h / (box.maxY - box.minY));
@@ -244,22 +244,6 @@ function tickText(t: number, ticks: readonly number[]): string {
   const step = ticks.length > 1 ? Math.abs(ticks[1]! - ticks[0]!) : 1;
   const decimals = Math.max(0, Math.min(6, -Math.floor(Math.log10(step) + 1e-9)));
   return formatNumber(t, decimals);
-}
-
-function bounds(rings: readonly Ring[]) {
-  let minX = Number.POSITIVE_INFINITY;
-  let minY = Number.POSITIVE_INFINITY;
-  let maxX = Number.NEGATIVE_INFINITY;
-  let maxY = Number.NEGATIVE_INFINITY;
-  for (const r of rings) {
-    for (const [x, y] of r) {
-      minX = Math.min(minX, x);
-      minY = Math.min(minY, y);
-      maxX = Math.max(maxX, x);
-      maxY = Math.max(maxY, y);
-    }
-  }
-  return { minX, minY, maxX, maxY };
 }
 
 function pathData(rings: readonly Ring[], map: (p: Point) => Point): string {
