@@ -136,9 +136,9 @@ type Operation = {
 };
 
 /**
- * Completes the generated document: every /v1 route lists the statuses the app's hooks add (401, 403, 429; 304 and
- * 409 not_ready on a plan's downloads), every response says what it means, the open routes need no token, the
- * schedule routes carry an example, and component schemas no route uses are dropped.
+ * Completes the generated document: every /v1 route lists the statuses the app's hooks add (401, 403, 429; 304,
+ * 409 not_ready and 503 service_busy on a plan's downloads), every response says what it means, the open routes need
+ * no token, the schedule routes carry an example, and component schemas no route uses are dropped.
  */
 export function completeOpenapi<T extends object>(document: T): T {
   const doc = document as unknown as {
@@ -154,6 +154,8 @@ export function completeOpenapi<T extends object>(document: T): T {
           op.responses['304'] ??= { description: '' };
           op.responses['404'] ??= errorResponse();
           op.responses['409'] ??= errorResponse();
+          // a download not stored with its plan is rendered by a worker, which can have too many waiting
+          op.responses['503'] ??= errorResponse();
         }
       } else {
         op.security = [];
