@@ -6,6 +6,9 @@
  *   2. GET /v1/plans/{id}/setpoints.csv at 100 connections
  *   3. GET /healthz at 10 connections while demo plans keep the workers busy (target p99 < 50 ms)
  *   4. demo plans finished per minute (a batch posted at once, timed until the last finishes)
+ *   5. GET /healthz, one request every 5 ms, while schedules at the vertex limit (200,000 vertices, about 3.5 MB) are
+ *      posted to /v1/checks and /v1/plans one after another: the longest wait shows how long one large request holds
+ *      the service thread (reading, validating, hashing and storing it, and sending the answer)
  *
  *   npm run bench:http [-- --duration 10 --connections 100 --plans 12 --workers <n>]
  *
@@ -34,6 +37,7 @@ const batch = Math.min(200, Math.max(1, Number(values.plans)));
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const demo = readFileSync(join(root, 'fixtures', 'demo-edging-strip.json'), 'utf8');
+const JSON_HEADERS = { 'content-type': 'application/json' };
 const dir = mkdtempSync(join(tmpdir(), 'bench-http-'));
 const port = await freePort();
 const base = `http://127.0.0.1:${port}`;
@@ -61,6 +65,27 @@ try {
   const ids = await Promise.all(Array.from({ length: batch }, () => postPlan()));
   await finished(ids);
   const minutes = (performance.now() - t0) / 60_000;
+
+  const large = largeSchedule();
+  const held = await healthWhile(async () => {
+    for (let i = 0; i < 3; i++) {
+      const check = await fetch(`${base}/v1/checks`, { method: 'POST', headers: JSON_HEADERS, body: large });
+      if (check.status !== 200) throw new Error(`large POST /v1/checks answered ${check.status}`);
+      await check.arrayBuffer();
+      const planned = await fetch(`${base}/v1/plans`, { method: 'POST', headers: JSON_HEADERS, body: large });
+      if (planned.status !== 202) throw new Error(`large POST /v1/plans answered ${planned.status}`);
+      const { id } = (await planned.json()) as { id: string };
+      await fetch(`${base}/v1/plans/${id}`, { method: 'DELETE' });
+    }
+  });
+  rows.push([
+    `GET /healthz every 5 ms, large posts (${(large.length / 1e6).toFixed(1)} MB)`,
+    '-',
+    held.p50.toFixed(1),
+    `${held.p99.toFixed(1)} (max ${held.max.toFixed(0)})`,
+    '0 / 0',
+  ]);
+
   const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
   for (const r of rows) console.log(r.map((cell, c) => cell.padEnd(widths[c]!)).join('  '));
   console.log(
@@ -85,10 +110,49 @@ async function cannon(url: string, n: number): Promise<autocannon.Result> {
   return autocannon({ url, connections: n, duration, pipelining: 1 });
 }
 
+/**
+ * A valid schedule at the vertex limit: 40 stations, each an elliptic orifice of 5,000 vertices (200,000 in all),
+ * coordinates to 3 decimals, its boundaries well inside the plan size limit.
+ */
+function largeSchedule(): string {
+  const stations = Array.from({ length: 40 }, (_, k) => {
+    const a = 20 + 0.1 * k;
+    const outer = Array.from({ length: 5000 }, (_, i) => {
+      const t = (2 * Math.PI * i) / 5000;
+      return [Number((a * Math.cos(t)).toFixed(3)), Number((3 * Math.sin(t)).toFixed(3))];
+    });
+    return { position_m: 0.05 * k, orifice: { outer } };
+  });
+  return JSON.stringify({ name: 'bench-large', material: 'PVC-U', stations });
+}
+
+/** Latencies of GET /healthz sent every 5 ms (one at a time) while `work` runs: p50, p99 and the longest, ms. */
+async function healthWhile(work: () => Promise<void>): Promise<{ p50: number; p99: number; max: number }> {
+  const waits: number[] = [];
+  let running = true;
+  const pinger = (async () => {
+    while (running) {
+      const t0 = performance.now();
+      await (await fetch(`${base}/healthz`)).arrayBuffer();
+      waits.push(performance.now() - t0);
+      await new Promise((r) => setTimeout(r, 5));
+    }
+  })();
+  try {
+    await work();
+  } finally {
+    running = false;
+    await pinger;
+  }
+  waits.sort((x, y) => x - y);
+  const at = (q: number) => waits[Math.min(waits.length - 1, Math.floor(q * waits.length))] ?? 0;
+  return { p50: at(0.5), p99: at(0.99), max: waits[waits.length - 1] ?? 0 };
+}
+
 async function postPlan(): Promise<string> {
   const res = await fetch(`${base}/v1/plans`, {
     method: 'POST',
-    headers: { 'content-type': 'application/json' },
+    headers: JSON_HEADERS,
     body: demo,
   });
   if (res.status !== 202) throw new Error(`POST /v1/plans answered ${res.status}`);

@@ -27,6 +27,7 @@ import { healthRoutes } from './http/routes/health.js';
 import { planDownloadRoutes } from './http/routes/plan-downloads.js';
 import { planDrawingRoutes } from './http/routes/plan-drawings.js';
 import { planRoutes } from './http/routes/plans.js';
+import { formatInstancePath } from './http/field-path.js';
 import { WIRE_LIMITS } from './http/wire-limits.js';
 import { PlanJobs, WorkerPool } from './jobs/index.js';
 import { type PlanStore, SqlitePlanStore } from './store/index.js';
@@ -371,7 +372,7 @@ export async function buildApp(options: AppOptions) {
   const rateLimitOff = { rateLimit: false } as const;
   await app.register(healthRoutes({ store, jobs, pool, config: rateLimitOff }));
   await app.register(checkRoutes(pool));
-  await app.register(planRoutes({ store, jobs, pollAfterS: POLL_AFTER_S }));
+  await app.register(planRoutes({ store, jobs, pool, pollAfterS: POLL_AFTER_S }));
   await app.register(planDownloadRoutes(downloads));
   await app.register(planDrawingRoutes(downloads));
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
@@ -411,12 +412,4 @@ function namesAnyTag(ifNoneMatch: string | string[] | undefined): boolean {
 /** A URL as it may appear in a message: at most 80 characters. */
 function shorten(url: string): string {
   return url.length > 80 ? `${url.slice(0, 77)}...` : url;
-}
-
-/** `/stations/0/orifice/outer/2` → `stations[0].orifice.outer[2]`. */
-function formatInstancePath(instancePath: string): string {
-  const parts = instancePath.split('/').filter((p) => p !== '');
-  let out = '';
-  for (const part of parts) out += /^\d+$/.test(part) ? `[${part}]` : out === '' ? part : `.${part}`;
-  return out === '' ? '(body)' : out;
 }

@@ -7,3 +7,14 @@ export function formatFieldPath(path: readonly PropertyKey[]): string {
   }
   return out === '' ? '(body)' : out;
 }
+
+/**
+ * A JSON-pointer-like path as zod issues give it (`/stations/0/orifice/outer/2`), formatted the same way
+ * (`stations[0].orifice.outer[2]`); `(body)` for the body itself.
+ */
+export function formatInstancePath(instancePath: string): string {
+  const parts = instancePath.split('/').filter((p) => p !== '');
+  let out = '';
+  for (const part of parts) out += /^\d+$/.test(part) ? `[${part}]` : out === '' ? part : `.${part}`;
+  return out === '' ? '(body)' : out;
+}

@@ -1,4 +1,5 @@
-import type { ClaimedPlan, PlanProgress, PlanStore } from '../store/index.js';
+import type { Schedule } from '../domain/index.js';
+import { type ClaimedPlan, type PlanProgress, type PlanStore, unpackJson } from '../store/index.js';
 import { failedPlan, planResult } from './plan-result.js';
 import type { WorkerPool } from './worker-pool.js';
 
@@ -102,7 +103,7 @@ export class PlanJobs {
   }
 
   private launch(claimed: ClaimedPlan): void {
-    const { entry, schedule, requestFindings } = claimed;
+    const { entry, schedulePacked, requestFindings } = claimed;
     const { store, pool, log } = this.options;
     const controller = new AbortController();
     const timer = setTimeout(() => controller.abort('time' satisfies StopReason), this.hardLimitMs);
@@ -119,7 +120,7 @@ export class PlanJobs {
       id: entry.id,
       createdAt: entry.createdAt,
       startedAt: entry.startedAt ?? this.iso(),
-      schedule,
+      schedulePacked,
       scheduleHash: entry.scheduleHash,
       requestFindings,
       timeLimitS: this.options.timeLimitS,
@@ -163,6 +164,7 @@ export class PlanJobs {
             ? `The plan ran longer than ${this.hardLimitMs / 1000} s and was stopped. Plan fewer stations, or fix the plate count with limits.plate_count.`
             : `The plan stopped its worker ${entry.attempts} times and was given up. Report the plan id to the service owners.`;
         log('error', { plan: entry.id, err, reason }, 'plan failed outside the pipeline');
+        const schedule = unpackJson<Schedule>(schedulePacked);
         const record = {
           id: entry.id,
           createdAt: entry.createdAt,

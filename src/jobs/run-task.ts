@@ -2,10 +2,9 @@ import type { MessagePort } from 'node:worker_threads';
 import type { Finding, Schedule } from '../domain/index.js';
 import type { UnreadableFigure } from '../http/readable-report.js';
 import { type RenderedDownload, renderDownloads } from '../http/render-download.js';
-import type { CheckReport } from '../http/report-schema.js';
-import { toCheckReport } from '../http/to-check-report.js';
-import { checkSchedule, planSchedule } from '../pipeline/index.js';
-import { decodeJson, encodeJson, type PlanRecord, type PlanResult, type StoredArtifact } from '../store/index.js';
+import { type CheckAnswer, checkBody, type IntakeRefusal, type PlanIntake, planBody } from '../http/schedule-intake.js';
+import { planSchedule } from '../pipeline/index.js';
+import { decodeJson, type PlanRecord, type PlanResult, type StoredArtifact, unpackJson } from '../store/index.js';
 import { planResult } from './plan-result.js';
 
 /** A plan to compute in a worker: the schedule and what its report needs. Plain data (structured clone). */
@@ -14,7 +13,8 @@ export interface PlanTask {
   readonly id: string;
   readonly createdAt: string;
   readonly startedAt: string;
-  readonly schedule: Schedule;
+  /** The schedule as the store keeps it, packed by `packJson` (unpacked here, in the worker). */
+  readonly schedulePacked: Uint8Array;
   readonly scheduleHash: string;
   readonly requestFindings: readonly Finding[];
   /** The chain search stops with what it has after this many seconds (PLAN_TIME_LIMIT_S). */
@@ -23,10 +23,16 @@ export interface PlanTask {
   readonly progress?: MessagePort;
 }
 
-/** A schedule to check in a worker. */
+/** A body posted to `POST /v1/checks`, as received (UTF-8 bytes), to read and check in a worker. */
 export interface CheckTask {
   readonly kind: 'check';
-  readonly schedule: Schedule;
+  readonly body: Uint8Array;
+}
+
+/** A body posted to `POST /v1/plans`, as received, to read in a worker and make ready for the store's queue. */
+export interface IntakeTask {
+  readonly kind: 'intake';
+  readonly body: Uint8Array;
 }
 
 /**
@@ -37,7 +43,8 @@ export interface RenderTask {
   readonly kind: 'render';
   readonly id: string;
   readonly createdAt: string;
-  readonly scheduleJson: string;
+  /** The plan's schedule, packed by `packJson`. */
+  readonly schedulePacked: Uint8Array;
   readonly planJson: string;
   readonly planHash: string;
   readonly names?: readonly string[];
@@ -57,18 +64,20 @@ export interface PlanTaskResult {
  * wire report. The worker reads the clock for the plan's time limit; the pipeline stays pure.
  */
 export default function runTask(
-  task: PlanTask | CheckTask | RenderTask,
-): PlanTaskResult | CheckReport | RenderedDownload[] {
-  if (task.kind === 'check') return toCheckReport(task.schedule, checkSchedule(task.schedule));
+  task: PlanTask | CheckTask | IntakeTask | RenderTask,
+): PlanTaskResult | IntakeRefusal | CheckAnswer | PlanIntake | RenderedDownload[] {
+  if (task.kind === 'check') return checkBody(utf8.decode(task.body));
+  if (task.kind === 'intake') return planBody(utf8.decode(task.body));
   if (task.kind === 'render') return renderDownloads(storedRecord(task), task.planHash, task.names);
   const started = performance.now();
   try {
-    const computed = planSchedule(task.schedule, {
+    const schedule = unpackJson<Schedule>(task.schedulePacked);
+    const computed = planSchedule(schedule, {
       stop: () => performance.now() - started > task.timeLimitS * 1000,
       progress: (stage, fraction) => task.progress?.postMessage({ stage, fraction }),
     });
     const plan = { ...computed, findings: [...task.requestFindings, ...computed.findings] };
-    const record = { id: task.id, createdAt: task.createdAt, schedule: task.schedule, plan };
+    const record = { id: task.id, createdAt: task.createdAt, schedule, plan };
     const written = planResult(record, {
       scheduleHash: task.scheduleHash,
       startedAt: task.startedAt,
@@ -87,7 +96,7 @@ export default function runTask(
         const stored = {
           id: task.id,
           createdAt: task.createdAt,
-          scheduleJson: encodeJson(task.schedule),
+          schedulePacked: task.schedulePacked,
           planJson: written.result.planJson,
           planHash: written.result.planHash,
         };
@@ -108,6 +117,12 @@ export default function runTask(
   }
 }
 
+/**
+ * Request bodies as the framework's own parser decodes them: invalid sequences become U+FFFD (and then fail as JSON
+ * or as a name), a byte order mark is dropped.
+ */
+const utf8 = new TextDecoder('utf-8');
+
 /** A plan renders its downloads with it only when it finished within this many times PLAN_TIME_LIMIT_S. */
 const RENDER_WITHIN_TIME_LIMITS = 2;
 
@@ -116,7 +131,7 @@ function storedRecord(task: Omit<RenderTask, 'kind' | 'names'>): PlanRecord {
   return {
     id: task.id,
     createdAt: task.createdAt,
-    schedule: decodeJson(task.scheduleJson),
+    schedule: unpackJson(task.schedulePacked),
     plan: decodeJson(task.planJson),
   };
 }

@@ -1,11 +1,10 @@
 import { fileURLToPath } from 'node:url';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { Schedule } from '../domain/index.js';
-import type { CheckReport } from '../http/report-schema.js';
+import type { CheckAnswer, IntakeRefusal, PlanIntake } from '../http/schedule-intake.js';
 import type { PlanProgress } from '../store/index.js';
 import type { RenderedDownload } from '../http/render-download.js';
-import type { CheckTask, PlanTask, PlanTaskResult, RenderTask } from './run-task.js';
+import type { CheckTask, IntakeTask, PlanTask, PlanTaskResult, RenderTask } from './run-task.js';
 
 /** Sizes of the worker pool. */
 export interface WorkerPoolOptions {
@@ -77,13 +76,33 @@ export class WorkerPool {
     }
   }
 
-  /** Checks a schedule in a worker and returns its wire report; `PoolBusyError` when too many checks wait. */
-  async check(schedule: Schedule): Promise<CheckReport> {
+  /**
+   * Checks a posted schedule in a worker, from the body's bytes to the report's JSON (see `checkBody`), or says why it
+   * is refused; `PoolBusyError` when too many checks and intakes wait.
+   */
+  async check(body: Uint8Array): Promise<IntakeRefusal | CheckAnswer> {
+    return (await this.intakeTask({ kind: 'check', body })) as IntakeRefusal | CheckAnswer;
+  }
+
+  /**
+   * Reads a schedule posted for a plan in a worker, from the body's bytes to what the store queues (see `planBody`),
+   * or says why it is refused; `PoolBusyError` when too many checks and intakes wait.
+   */
+  async takePlan(body: Uint8Array): Promise<IntakeRefusal | PlanIntake> {
+    return (await this.intakeTask({ kind: 'intake', body })) as IntakeRefusal | PlanIntake;
+  }
+
+  /**
+   * Runs a body's intake. A body that owns its memory (the framework's parser gives a large body its own) is moved to
+   * the worker, not copied, and is empty here afterwards; a small one shares a pooled block and is copied.
+   */
+  private async intakeTask(task: CheckTask | IntakeTask): Promise<unknown> {
     if (this.waitingChecks >= this.maxCheckQueue) throw new PoolBusyError();
     this.waitingChecks++;
     try {
-      const task: CheckTask = { kind: 'check', schedule };
-      return (await this.piscina.run(task)) as CheckReport;
+      const { buffer, byteOffset, byteLength } = task.body;
+      const own = buffer instanceof ArrayBuffer && byteOffset === 0 && byteLength === buffer.byteLength;
+      return await this.piscina.run(task, own ? { transferList: [buffer] } : {});
     } finally {
       this.waitingChecks--;
     }

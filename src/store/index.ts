@@ -10,9 +10,11 @@ export {
   type PlanResult,
   type PlanStatus,
   type PlanStore,
+  type ScheduleHead,
+  scheduleParts,
   type StoredArtifact,
 } from './plan-store.js';
 export { isPlanCursor, SqlitePlanStore } from './sqlite-plan-store.js';
-export { decodeJson, encodeJson } from './json-codec.js';
+export { decodeJson, encodeJson, packJson, unpackJson } from './json-codec.js';
 export { scheduleHash, textHash } from './schedule-hash.js';
 export { MIGRATIONS } from './migrations.js';

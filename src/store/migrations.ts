@@ -58,4 +58,15 @@ export const MIGRATIONS: readonly { readonly version: number; readonly name: str
       ) WITHOUT ROWID;
     `,
   },
+  {
+    version: 3,
+    name: 'schedules compressed; what a queued plan reports kept beside its schedule',
+    sql: `
+      ALTER TABLE schedules ADD COLUMN schedule_gz BLOB;
+      ALTER TABLE schedules ADD COLUMN material TEXT;
+      ALTER TABLE schedules ADD COLUMN die_temperature_c REAL;
+      UPDATE schedules SET material = json_extract(schedule_json, '$.material'),
+        die_temperature_c = json_extract(schedule_json, '$.process.dieTemperatureC');
+    `,
+  },
 ];

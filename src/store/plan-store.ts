@@ -1,5 +1,6 @@
-import type { Finding, Schedule } from '../domain/index.js';
+import type { Finding, MaterialName, Schedule } from '../domain/index.js';
 import type { Plan } from '../pipeline/index.js';
+import { packJson } from './json-codec.js';
 
 /** One finished plan: the validated schedule it came from and the plan itself (plain data). */
 export interface PlanRecord {
@@ -46,11 +47,31 @@ export interface PlanEntry {
   readonly planHash: string | null;
 }
 
+/** What the store keeps beside a schedule, so a queued plan is described without decoding its schedule. */
+export interface ScheduleHead {
+  readonly name: string;
+  readonly material: MaterialName;
+  readonly dieTemperatureC: number;
+}
+
+/** A schedule as `NewPlan` carries it: packed, with its head. */
+export function scheduleParts(schedule: Schedule): {
+  readonly schedulePacked: Uint8Array;
+  readonly head: ScheduleHead;
+} {
+  return {
+    schedulePacked: packJson(schedule),
+    head: { name: schedule.name, material: schedule.material, dieTemperatureC: schedule.process.dieTemperatureC },
+  };
+}
+
 /** A plan job to store, queued. */
 export interface NewPlan {
   readonly id: string;
   readonly createdAt: string;
-  readonly schedule: Schedule;
+  /** The validated schedule, packed by `packJson` (see `scheduleParts`). */
+  readonly schedulePacked: Uint8Array;
+  readonly head: ScheduleHead;
   readonly scheduleHash: string;
   /** Findings about the request itself (unknown or unused fields), merged into the plan's findings when it is done. */
   readonly requestFindings: readonly Finding[];
@@ -59,10 +80,10 @@ export interface NewPlan {
   readonly idempotencyKey: string | null;
 }
 
-/** A queued plan handed to a worker. */
+/** A queued plan handed to a worker, its schedule packed by `packJson` (the worker unpacks it). */
 export interface ClaimedPlan {
   readonly entry: PlanEntry;
-  readonly schedule: Schedule;
+  readonly schedulePacked: Uint8Array;
   readonly requestFindings: readonly Finding[];
 }
 
@@ -137,13 +158,16 @@ export interface PlanStore {
   resultText(id: string):
     | {
         readonly createdAt: string;
-        readonly scheduleJson: string;
+        /** The schedule, packed by `packJson`. */
+        readonly schedulePacked: Uint8Array;
         readonly planJson: string;
         readonly planHash: string;
       }
     | undefined;
   /** The plan's schedule, whatever its status. */
   schedule(id: string): Schedule | undefined;
+  /** The plan's schedule's name, material and die temperature, whatever its status (no decoding). */
+  scheduleHead(id: string): ScheduleHead | undefined;
   /** The request findings stored with a plan. */
   requestFindings(id: string): readonly Finding[];
   /** The oldest queued plan, now marked running (attempts + 1), or undefined when none waits. */

@@ -1,9 +1,9 @@
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import Database from 'better-sqlite3';
-import type { Finding, Schedule } from '../domain/index.js';
+import type { Finding, MaterialName, Schedule } from '../domain/index.js';
 import type { Plan } from '../pipeline/index.js';
-import { decodeJson, encodeJson } from './json-codec.js';
+import { decodeJson, encodeJson, packJson, unpackJson } from './json-codec.js';
 import { MIGRATIONS } from './migrations.js';
 import type {
   ClaimedPlan,
@@ -16,6 +16,7 @@ import type {
   PlanResult,
   PlanStatus,
   PlanStore,
+  ScheduleHead,
   StoredArtifact,
 } from './plan-store.js';
 
@@ -32,6 +33,22 @@ interface PlanRow {
   finished_at: string | null;
   error: string | null;
   plan_hash: string | null;
+}
+
+/** A stored schedule: packed (`schedule_gz`), or as JSON text in a file written before schedules were packed. */
+interface ScheduleRow {
+  schedule_json: string;
+  schedule_gz: Buffer | null;
+}
+
+/** A stored schedule, packed by `packJson` (one written as text before schedules were packed is packed now). */
+function packedSchedule(row: ScheduleRow): Uint8Array {
+  return row.schedule_gz ?? packJson(decodeJson(row.schedule_json));
+}
+
+/** Bytes as better-sqlite3 binds them (a Buffer); a view of the same memory, not a copy. */
+function asBuffer(bytes: Uint8Array): Buffer {
+  return Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
 
 const ENTRY_COLUMNS = `p.id, p.created_at, p.name, p.schedule_hash, p.status, p.stage, p.fraction, p.attempts,
@@ -72,23 +89,29 @@ export class SqlitePlanStore implements PlanStore {
          WHERE coalesce(p.client, '') = coalesce(?, '') AND p.idempotency_key = ?`,
       ),
       insertSchedule: db.prepare(
-        'INSERT OR IGNORE INTO schedules (hash, name, schedule_json, created_at) VALUES (?, ?, ?, ?)',
+        `INSERT OR IGNORE INTO schedules (hash, name, schedule_json, schedule_gz, created_at, material, die_temperature_c)
+         VALUES (?, ?, '', ?, ?, ?, ?)`,
       ),
       insertPlan: db.prepare(
         `INSERT INTO plans (id, created_at, name, schedule_hash, status, request_findings_json, client, idempotency_key)
          VALUES (?, ?, ?, ?, 'queued', ?, ?, ?)`,
       ),
       schedule: db.prepare(
-        'SELECT s.schedule_json AS json FROM plans p JOIN schedules s ON s.hash = p.schedule_hash WHERE p.id = ?',
+        `SELECT s.schedule_json, s.schedule_gz FROM plans p JOIN schedules s ON s.hash = p.schedule_hash
+         WHERE p.id = ?`,
+      ),
+      scheduleHead: db.prepare(
+        `SELECT s.name, s.material, s.die_temperature_c FROM plans p JOIN schedules s ON s.hash = p.schedule_hash
+         WHERE p.id = ?`,
       ),
       requestFindings: db.prepare('SELECT request_findings_json AS json FROM plans WHERE id = ?'),
       finished: db.prepare(
-        `SELECT p.created_at, s.schedule_json, r.plan_json FROM plans p
+        `SELECT p.created_at, s.schedule_json, s.schedule_gz, r.plan_json FROM plans p
          JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
       ),
       report: db.prepare('SELECT report_json AS json FROM results WHERE plan_id = ?'),
       resultText: db.prepare(
-        `SELECT p.created_at, s.schedule_json, r.plan_json, r.plan_hash FROM plans p
+        `SELECT p.created_at, s.schedule_json, s.schedule_gz, r.plan_json, r.plan_hash FROM plans p
          JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
       ),
       artifact: db.prepare(
@@ -139,14 +162,16 @@ export class SqlitePlanStore implements PlanStore {
       }
       this.statements.insertSchedule.run(
         plan.scheduleHash,
-        plan.schedule.name,
-        encodeJson(plan.schedule),
+        plan.head.name,
+        asBuffer(plan.schedulePacked),
         plan.createdAt,
+        plan.head.material,
+        plan.head.dieTemperatureC,
       );
       this.statements.insertPlan.run(
         plan.id,
         plan.createdAt,
-        plan.schedule.name,
+        plan.head.name,
         plan.scheduleHash,
         encodeJson(plan.requestFindings),
         plan.client,
@@ -170,13 +195,13 @@ export class SqlitePlanStore implements PlanStore {
     const cached = this.cache.get(id);
     if (cached) return cached;
     const row = this.statements.finished.get(id) as
-      | { created_at: string; schedule_json: string; plan_json: string }
+      | (ScheduleRow & { created_at: string; plan_json: string })
       | undefined;
     if (!row) return undefined;
     const record: PlanRecord = {
       id,
       createdAt: row.created_at,
-      schedule: decodeJson<Schedule>(row.schedule_json),
+      schedule: unpackJson<Schedule>(packedSchedule(row)),
       plan: decodeJson<Plan>(row.plan_json),
     };
     remember(this.cache, id, record, RECORD_CACHE_SIZE);
@@ -234,12 +259,12 @@ export class SqlitePlanStore implements PlanStore {
 
   resultText(id: string) {
     const row = this.statements.resultText.get(id) as
-      | { created_at: string; schedule_json: string; plan_json: string; plan_hash: string }
+      | (ScheduleRow & { created_at: string; plan_json: string; plan_hash: string })
       | undefined;
     if (!row) return undefined;
     return {
       createdAt: row.created_at,
-      scheduleJson: row.schedule_json,
+      schedulePacked: packedSchedule(row),
       planJson: row.plan_json,
       planHash: row.plan_hash,
     };
@@ -247,7 +272,7 @@ export class SqlitePlanStore implements PlanStore {
 
   private insertArtifacts(id: string, artifacts: readonly StoredArtifact[]): void {
     artifacts.forEach((a, position) => {
-      const body = Buffer.isBuffer(a.body) ? a.body : Buffer.from(a.body.buffer, a.body.byteOffset, a.body.byteLength);
+      const body = asBuffer(a.body);
       this.statements.insertArtifact.run(
         id,
         a.name,
@@ -262,8 +287,15 @@ export class SqlitePlanStore implements PlanStore {
   }
 
   schedule(id: string): Schedule | undefined {
-    const row = this.statements.schedule.get(id) as { json: string } | undefined;
-    return row ? decodeJson<Schedule>(row.json) : undefined;
+    const row = this.statements.schedule.get(id) as ScheduleRow | undefined;
+    return row ? unpackJson<Schedule>(packedSchedule(row)) : undefined;
+  }
+
+  scheduleHead(id: string): ScheduleHead | undefined {
+    const row = this.statements.scheduleHead.get(id) as
+      | { name: string; material: MaterialName; die_temperature_c: number }
+      | undefined;
+    return row ? { name: row.name, material: row.material, dieTemperatureC: row.die_temperature_c } : undefined;
   }
 
   requestFindings(id: string): readonly Finding[] {
@@ -278,7 +310,7 @@ export class SqlitePlanStore implements PlanStore {
       this.statements.start.run(startedAt, next.id);
       return {
         entry: this.entry(next.id)!,
-        schedule: this.schedule(next.id)!,
+        schedulePacked: packedSchedule(this.statements.schedule.get(next.id) as ScheduleRow),
         requestFindings: this.requestFindings(next.id),
       };
     })();

@@ -9,7 +9,7 @@ import { unreadableFigure } from '../../src/http/readable-report.js';
 import { FIELD_RANGES } from '../../src/http/schedule-schema.js';
 import { toFindingWire } from '../../src/http/to-check-report.js';
 import { planResult } from '../../src/jobs/index.js';
-import { SqlitePlanStore, scheduleHash } from '../../src/store/index.js';
+import { SqlitePlanStore, scheduleHash, scheduleParts } from '../../src/store/index.js';
 import { makeTestApp } from '../support/test-app.js';
 
 /**
@@ -180,7 +180,7 @@ describe('a stored plan is always readable', () => {
     store.add({
       id: poisoned.id,
       createdAt: poisoned.createdAt,
-      schedule: poisoned.schedule,
+      ...scheduleParts(poisoned.schedule),
       scheduleHash: scheduleHash(poisoned.schedule),
       requestFindings: [],
       client: null,

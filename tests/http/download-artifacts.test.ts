@@ -8,7 +8,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { buildApp } from '../../src/app.js';
 import { isDefaultDownload } from '../../src/http/render-download.js';
-import { type PlanResult, SqlitePlanStore } from '../../src/store/index.js';
+import { type PlanResult, SqlitePlanStore, scheduleParts } from '../../src/store/index.js';
 import { fixture, waitForPlan } from '../support/test-app.js';
 
 /**
@@ -144,7 +144,7 @@ describe('downloads stored with the plan', () => {
     store.add({
       id: old,
       createdAt: new Date().toISOString(),
-      schedule,
+      ...scheduleParts(schedule),
       scheduleHash: store.entry(id)!.scheduleHash,
       requestFindings: [],
       client: null,

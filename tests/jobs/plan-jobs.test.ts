@@ -3,7 +3,7 @@ import type { Schedule } from '../../src/domain/index.js';
 import { ScheduleWire } from '../../src/http/schedule-schema.js';
 import { toSchedule } from '../../src/http/to-schedule.js';
 import { PlanJobs, WorkerPool } from '../../src/jobs/index.js';
-import { SqlitePlanStore, scheduleHash } from '../../src/store/index.js';
+import { SqlitePlanStore, scheduleHash, scheduleParts } from '../../src/store/index.js';
 import { fixture } from '../support/test-app.js';
 
 /**
@@ -42,7 +42,7 @@ function setUp(options: { hardLimitS?: number } = {}) {
     store.add({
       id,
       createdAt: new Date(Date.UTC(2026, 11, 2, 10, 0, n)).toISOString(),
-      schedule: s,
+      ...scheduleParts(s),
       scheduleHash: scheduleHash(s),
       requestFindings: [],
       client: null,

@@ -3,12 +3,18 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, describe, expect, it } from 'vitest';
-import { MIGRATIONS, type PlanResult, SqlitePlanStore, type StoredArtifact } from '../../src/store/index.js';
+import {
+  MIGRATIONS,
+  type PlanResult,
+  SqlitePlanStore,
+  type StoredArtifact,
+  scheduleParts,
+} from '../../src/store/index.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'store-artifacts-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-const schedule = { name: 'strip' } as never;
+const schedule = { name: 'strip', material: 'PVC-U', process: { dieTemperatureC: 190 } } as never;
 const artifact = (name: string, text: string, refusal: string | null = null): StoredArtifact => ({
   name,
   contentType: 'text/csv; charset=utf-8',
@@ -31,7 +37,7 @@ function running(store: SqlitePlanStore, id: string): void {
   store.add({
     id,
     createdAt: new Date().toISOString(),
-    schedule,
+    ...scheduleParts(schedule),
     scheduleHash: id,
     requestFindings: [],
     client: null,

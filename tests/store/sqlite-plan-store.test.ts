@@ -14,6 +14,8 @@ import {
   type PlanResult,
   SqlitePlanStore,
   scheduleHash,
+  scheduleParts,
+  unpackJson,
 } from '../../src/store/index.js';
 import { fixture } from '../support/test-app.js';
 
@@ -27,7 +29,7 @@ function newPlan(id: string, createdAt: string, schedule = demoSchedule(), key: 
   return {
     id,
     createdAt,
-    schedule,
+    ...scheduleParts(schedule),
     scheduleHash: scheduleHash(schedule),
     requestFindings: [],
     client: null,
@@ -74,7 +76,8 @@ describe('SqlitePlanStore', () => {
     expect(store.get('p1')).toBeUndefined();
     const claimed = store.claimNext('2026-12-02T10:00:01.000Z')!;
     expect(claimed.entry).toMatchObject({ status: 'running', attempts: 1, startedAt: '2026-12-02T10:00:01.000Z' });
-    expect(claimed.schedule).toEqual(demoSchedule());
+    expect(unpackJson(claimed.schedulePacked)).toEqual(demoSchedule());
+    expect(store.scheduleHead('p1')).toEqual({ name: demoSchedule().name, material: 'PVC-U', dieTemperatureC: 190 });
     expect(store.claimNext('x')).toBeUndefined();
     store.setProgress('p1', { stage: 'fit', fraction: 0.1 });
     expect(store.entry('p1')?.progress).toEqual({ stage: 'fit', fraction: 0.1 });
@@ -165,6 +168,40 @@ describe('SqlitePlanStore', () => {
 });
 
 describe('encodeJson / decodeJson and scheduleHash', () => {
+  it('a file of schema version 2 gains the material and die temperature, read from its stored JSON', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plan-store-v2-'));
+    const path = join(dir, 'v2.sqlite');
+    const db = new Database(path);
+    db.exec('CREATE TABLE migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)');
+    for (const m of MIGRATIONS.slice(0, 2)) {
+      db.exec(m.sql);
+      db.prepare('INSERT INTO migrations VALUES (?, ?, ?)').run(m.version, m.name, new Date().toISOString());
+    }
+    const schedule = { ...demoSchedule(), material: 'HDPE' as const };
+    const hash = scheduleHash(schedule);
+    db.prepare('INSERT INTO schedules (hash, name, schedule_json, created_at) VALUES (?, ?, ?, ?)').run(
+      hash,
+      schedule.name,
+      encodeJson(schedule),
+      '2026-12-01T00:00:00.000Z',
+    );
+    db.prepare("INSERT INTO plans (id, created_at, name, schedule_hash, status) VALUES ('old', ?, ?, ?, 'queued')").run(
+      '2026-12-01T00:00:00.000Z',
+      schedule.name,
+      hash,
+    );
+    db.close();
+    const store = new SqlitePlanStore(path);
+    expect(store.scheduleHead('old')).toEqual({
+      name: schedule.name,
+      material: 'HDPE',
+      dieTemperatureC: schedule.process.dieTemperatureC,
+    });
+    expect(unpackJson(store.claimNext('2026-12-02T00:00:00.000Z')!.schedulePacked)).toEqual(schedule);
+    store.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
   it('round-trips NaN and ±Infinity, which plain JSON (RFC 8259) cannot hold', () => {
     const value = { a: Number.NaN, b: [Number.POSITIVE_INFINITY, -1, Number.NEGATIVE_INFINITY], c: { $number: 1 } };
     expect(decodeJson(encodeJson(value))).toEqual(value);

@@ -1,18 +1,18 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { PoolBusyError, type WorkerPool } from '../../jobs/index.js';
-import { errorBody } from '../error-catalogue.js';
-import { unreadableFigure } from '../readable-report.js';
-import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
+import { keepJsonBodyBytes, validateAllButBody } from '../body-bytes.js';
+import { ERROR_CATALOGUE, errorBody } from '../error-catalogue.js';
 import { CheckReportWire, ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
-import { toFindingWire } from '../to-check-report.js';
 
 /**
- * `POST /v1/checks`: measure every station and report process findings, with safety cautions. The check runs in a
- * worker thread (a 500-station schedule takes seconds), so the service keeps answering meanwhile.
+ * `POST /v1/checks`: measure every station and report process findings, with safety cautions. The whole check, from
+ * the body's bytes (UTF-8, JSON, the wire format, the mapping to domain units) to the report's JSON, runs in a worker thread
+ * (a schedule at the vertex limit takes seconds), so the service keeps answering meanwhile.
  */
 export function checkRoutes(pool: WorkerPool): FastifyPluginAsyncZod {
   return async (app) => {
+    keepJsonBodyBytes(app);
     app.post(
       '/v1/checks',
       {
@@ -35,14 +35,12 @@ export function checkRoutes(pool: WorkerPool): FastifyPluginAsyncZod {
             503: ErrorWire,
           },
         },
-        preValidation: keepRawBody,
+        validatorCompiler: validateAllButBody,
       },
       async (request, reply) => {
-        const schedule = scheduleOrReject(request.body, request, reply);
-        if (!schedule) return reply;
-        let mapped: Awaited<ReturnType<WorkerPool['check']>>;
+        let answer: Awaited<ReturnType<WorkerPool['check']>>;
         try {
-          mapped = await pool.check(schedule);
+          answer = await pool.check(request.body as unknown as Buffer);
         } catch (err) {
           if (!(err instanceof PoolBusyError)) throw err;
           return reply
@@ -53,25 +51,14 @@ export function checkRoutes(pool: WorkerPool): FastifyPluginAsyncZod {
               request_id: request.id,
             });
         }
-        request.log.info({ stations: mapped.stations.length, findings: mapped.findings.length }, 'schedule checked');
-        const report = {
-          ...mapped,
-          findings: [...unknownScheduleFields(request, 'checks').map(toFindingWire), ...mapped.findings],
-        };
-        const unreadable = unreadableFigure(report);
-        if (unreadable) {
-          request.log.warn({ unreadable }, 'check figure not finite');
-          return reply.code(400).send({
-            ...errorBody('invalid_schedule', 'The schedule gives figures that cannot be computed as finite numbers.', [
-              {
-                path: 'process',
-                message: `these process values and orifices give ${unreadable.path} that is not a finite number (${unreadable.problem}); bring the values nearer to common practice`,
-              },
-            ]),
-            request_id: request.id,
-          });
+        if (!answer.ok) {
+          return reply
+            .code(ERROR_CATALOGUE[answer.code].status as 400)
+            .send({ ...errorBody(answer.code, answer.message, answer.details), request_id: request.id });
         }
-        return report;
+        request.log.info({ stations: answer.stations, findings: answer.findings }, 'schedule checked');
+        // written in the worker by the route's response schema
+        return reply.header('content-type', 'application/json; charset=utf-8').send(answer.reportJson as never);
       },
     );
   };

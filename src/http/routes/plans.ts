@@ -1,11 +1,11 @@
 import { randomUUID } from 'node:crypto';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { ringPerimeter } from '../../geometry/index.js';
-import type { PlanJobs } from '../../jobs/index.js';
+import { type PlanJobs, PoolBusyError, type WorkerPool } from '../../jobs/index.js';
 import { processCautions } from '../../safety/index.js';
-import { isPlanCursor, type PlanEntry, type PlanStore, scheduleHash } from '../../store/index.js';
-import { errorBody } from '../error-catalogue.js';
+import { isPlanCursor, type PlanEntry, type PlanStore } from '../../store/index.js';
+import { keepJsonBodyBytes, validateAllButBody } from '../body-bytes.js';
+import { ERROR_CATALOGUE, errorBody } from '../error-catalogue.js';
 import { matchesEtag, planEtag } from '../plan-gate.js';
 import {
   IdempotencyHeadersWire,
@@ -15,17 +15,9 @@ import {
   PlanListQueryWire,
   PlanListWire,
 } from '../plan-job-schema.js';
-import { keepRawBody, scheduleOrReject, unknownScheduleFields } from '../reject-bad-schedule.js';
 import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { toCautionWire, toFindingWire } from '../to-check-report.js';
-
-/**
- * Largest total outer-boundary length of a schedule's stations a plan may fit, mm: about 180 stations of the demo
- * strip (about 110 mm of boundary each). Measured on a 2-core machine: 100 such stations plan in about 6 s, 400 in
- * about 55 s (README), so one plan holds a worker for about half a minute at most.
- */
-export const PLAN_BOUNDARY_LIMIT_MM = 20_000;
 
 /** Finished plans' reports kept encoded for GET /v1/plans/{id}, and most bytes they may hold (64 MiB). */
 const SENT_PLANS = 256;
@@ -34,6 +26,8 @@ const SENT_BYTES = 64 * 1024 * 1024;
 export interface PlanRouteDeps {
   readonly store: PlanStore;
   readonly jobs: PlanJobs;
+  /** Reads posted schedules off the service thread. */
+  readonly pool: WorkerPool;
   /** Seconds a client is told (Retry-After) to wait before polling a plan that is not finished. */
   readonly pollAfterS: number;
 }
@@ -44,8 +38,9 @@ const errors = { 400: ErrorWire, 401: ErrorWire, 403: ErrorWire, 429: ErrorWire 
  * `POST /v1/plans` stores the schedule and queues the plan (answering 202 before any planning), `GET /v1/plans/{id}`
  * shows where it stands or its result, `GET /v1/plans` lists plans, `DELETE /v1/plans/{id}` stops and removes one.
  */
-export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyPluginAsyncZod {
+export function planRoutes({ store, jobs, pool, pollAfterS }: PlanRouteDeps): FastifyPluginAsyncZod {
   return async (app) => {
+    keepJsonBodyBytes(app);
     // finished plans never change: their reports are kept encoded with their tags, so a read writes bytes as they
     // are (no serialiser, no text encoding, no hashing per request); bounded by count and bytes, oldest dropped
     const sent = new Map<string, { readonly etag: string; readonly body: Buffer }>();
@@ -89,46 +84,48 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
           tags: ['plans'],
           body: ScheduleWire,
           headers: IdempotencyHeadersWire,
-          response: { 202: PlanCreatedWire, ...errors, 413: ErrorWire, 415: ErrorWire, 422: ErrorWire },
+          response: {
+            202: PlanCreatedWire,
+            ...errors,
+            413: ErrorWire,
+            415: ErrorWire,
+            422: ErrorWire,
+            503: ErrorWire,
+          },
         },
-        preValidation: keepRawBody,
+        validatorCompiler: validateAllButBody,
       },
       async (request, reply) => {
-        const schedule = scheduleOrReject(request.body, request, reply);
-        if (!schedule) return reply;
-        if (schedule.stations.length < 2) {
-          return reply.code(400).send({
-            ...errorBody('invalid_schedule', 'A plan needs at least two stations.', [
-              { path: 'stations', message: 'a plan needs at least 2 stations: with one there is nothing to move' },
-            ]),
-            request_id: request.id,
-          });
+        let taken: Awaited<ReturnType<WorkerPool['takePlan']>>;
+        try {
+          taken = await pool.takePlan(request.body as unknown as Buffer);
+        } catch (err) {
+          if (!(err instanceof PoolBusyError)) throw err;
+          return reply
+            .code(503)
+            .header('retry-after', '2')
+            .send({
+              ...errorBody(
+                'service_busy',
+                'Too many schedules are waiting for a worker to read them; try again in 2 s.',
+              ),
+              request_id: request.id,
+            });
         }
-        // the chain fit's work grows with every station's boundary length: refuse what would hold a worker too long
-        const boundaryMm = schedule.stations.reduce((sum, s) => sum + ringPerimeter(s.orifice.outer), 0);
-        if (boundaryMm > PLAN_BOUNDARY_LIMIT_MM) {
-          return reply.code(422).send({
-            ...errorBody(
-              'plan_too_large',
-              `The stations' boundaries add up to ${Math.round(boundaryMm / 1000)} m, more than the ${PLAN_BOUNDARY_LIMIT_MM / 1000} m one plan may fit.`,
-              [
-                {
-                  path: 'stations',
-                  message: `${schedule.stations.length} stations with ${Math.round(boundaryMm / 1000)} m of boundary in all: send fewer stations or plan the schedule in parts (at most ${PLAN_BOUNDARY_LIMIT_MM / 1000} m)`,
-                },
-              ],
-            ),
-            request_id: request.id,
-          });
+        if (!taken.ok) {
+          return reply
+            .code(ERROR_CATALOGUE[taken.code].status as 400)
+            .send({ ...errorBody(taken.code, taken.message, taken.details), request_id: request.id });
         }
-        const hash = scheduleHash(schedule);
+        const hash = taken.scheduleHash;
         const key = request.headers['idempotency-key'] ?? null;
         const { entry, created } = store.add({
           id: randomUUID(),
           createdAt: new Date().toISOString(),
-          schedule,
+          schedulePacked: taken.schedulePacked,
+          head: taken.head,
           scheduleHash: hash,
-          requestFindings: unknownScheduleFields(request, 'plans'),
+          requestFindings: taken.requestFindings,
           client: request.principal?.name ?? null,
           idempotencyKey: typeof key === 'string' ? key : null,
         });
@@ -159,7 +156,7 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
             status: now.status,
             schedule_hash: entry.scheduleHash,
             location,
-            cautions: processCautions(schedule.material, schedule.process.dieTemperatureC).map(toCautionWire),
+            cautions: processCautions(taken.head.material, taken.head.dieTemperatureC).map(toCautionWire),
           });
       },
     );
@@ -253,7 +250,7 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
 
     /** The report of a plan that has no result yet. */
     const pending = (entry: PlanEntry) => {
-      const schedule = store.schedule(entry.id);
+      const head = store.scheduleHead(entry.id);
       return {
         id: entry.id,
         name: entry.name,
@@ -262,9 +259,7 @@ export function planRoutes({ store, jobs, pollAfterS }: PlanRouteDeps): FastifyP
         chains_tried: [],
         created_at: entry.createdAt,
         findings: store.requestFindings(entry.id).map(toFindingWire),
-        cautions: schedule
-          ? processCautions(schedule.material, schedule.process.dieTemperatureC).map(toCautionWire)
-          : [],
+        cautions: head ? processCautions(head.material, head.dieTemperatureC).map(toCautionWire) : [],
         stations: [],
         chain: null,
         mechanisation: null,
