@@ -6,6 +6,8 @@
  *   2. GET /v1/plans/{id}/setpoints.csv at 100 connections
  *   3. GET /healthz at 10 connections while demo plans keep the workers busy (target p99 < 50 ms)
  *   4. demo plans finished per minute (a batch posted at once, timed until the last finishes)
+ *   1b. the same bytes from a bare fastify server (one route, no hooks, no store) at the same connections: the
+ *      ceiling of this machine and load generator, against which figure 1 is read
  *   5. GET /healthz, one request every 5 ms, while schedules at the vertex limit (200,000 vertices, about 3.5 MB) are
  *      posted to /v1/checks and /v1/plans one after another: the longest wait shows how long one large request holds
  *      the service thread (reading, validating, hashing and storing it, and sending the answer)
@@ -15,7 +17,7 @@
  * Figures vary with machine load, so they are printed, never asserted. Every run is bounded by --duration.
  */
 import { type ChildProcess, spawn } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -52,6 +54,14 @@ try {
   // the same request one at a time: the service time, without the queueing of 100 connections on few cores
   const single = await cannon(`${base}/v1/plans/${first}`, 1);
   rows.push(['GET /v1/plans/{id}, 1 connection', ...figures(single)]);
+  const report = Buffer.from(await (await fetch(`${base}/v1/plans/${first}`)).arrayBuffer());
+  const bare = await bareServer(report);
+  try {
+    const ceiling = await cannon(bare.url, connections);
+    rows.push([`bare fastify, same ${report.byteLength} bytes, ${connections} connections`, ...figures(ceiling)]);
+  } finally {
+    bare.child.kill();
+  }
   const csv = await cannon(`${base}/v1/plans/${first}/setpoints.csv`, connections);
   rows.push([`GET setpoints.csv, ${connections} connections`, ...figures(csv)]);
 
@@ -166,6 +176,32 @@ async function finished(ids: readonly string[]): Promise<void> {
       if (status !== 'queued' && status !== 'running') break;
       await new Promise((r) => setTimeout(r, 100));
     }
+  }
+}
+
+/**
+ * A bare fastify server in a child process that answers every GET with `body` (no hooks, no store, no logging): what
+ * this machine and load generator allow any fastify server sending those bytes.
+ */
+async function bareServer(body: Buffer): Promise<{ child: ChildProcess; url: string }> {
+  const file = join(dir, 'body.json');
+  writeFileSync(file, body);
+  const barePort = await freePort();
+  const script = `
+    const body = require('node:fs').readFileSync(${JSON.stringify(file)});
+    const app = require('fastify')();
+    app.get('/', (request, reply) => { reply.header('content-type', 'application/json; charset=utf-8').send(body); });
+    app.listen({ port: ${barePort}, host: '127.0.0.1' });`;
+  const child = spawn(process.execPath, ['-e', script], { cwd: root, stdio: ['ignore', 'ignore', 'inherit'] });
+  const url = `http://127.0.0.1:${barePort}/`;
+  for (let tries = 0; ; tries++) {
+    try {
+      if ((await fetch(url)).status === 200) return { child, url };
+    } catch {
+      // not yet listening
+    }
+    if (tries > 100) throw new Error('the bare server did not start');
+    await new Promise((r) => setTimeout(r, 100));
   }
 }
 
