@@ -13,6 +13,13 @@ import { pivotFans, plateOutline } from '../synthesis/index.js';
 export const PIN_HOLE_FIT_CLEARANCE_MM = 0.02;
 
 /**
+ * Added to the slider block's width and length on every drawn slot, mm: a sliding fit for the block. For 6–18 mm a
+ * H7 slot on a g6 block leaves 0.005–0.029 mm (ISO 286-2 tables, from memory); 0.02 mm sits in that band and is stated
+ * on the die-body drawing so the tool maker can fit to their own practice instead.
+ */
+export const SLOT_FIT_CLEARANCE_MM = 0.02;
+
+/**
  * Configurations solved between neighbouring stations for the swept envelope (each transition cut into this many
  * equal steps of the actuator values). Every actuator moves by the same rest-to-rest law over a transition, so all of
  * them are at the same fraction of their move at any instant: the configurations the die passes through are exactly
@@ -80,14 +87,21 @@ export interface DrawnActuator {
   readonly stationValues: readonly number[];
 }
 
-/** A straight slot in the die body for a chain end, mm. */
+/**
+ * A straight slot in the die body for a chain end, mm: a pocket the slider block runs in, long enough for the block at
+ * both ends of the pin's travel.
+ */
 export interface DrawnSlot {
   readonly joint: string;
   /** Pin centre at the two ends of its travel over the stations. */
   readonly from: Point;
   readonly to: Point;
-  /** Width of the slot: the slider block's width, mm. */
+  /** Unit vector along the slot (from `from` towards `to` when they differ). */
+  readonly direction: Point;
+  /** Width of the pocket: the slider block's width plus `SLOT_FIT_CLEARANCE_MM`, mm. */
   readonly widthMm: number;
+  /** Length of the pocket: the pin's travel plus the block's length plus `SLOT_FIT_CLEARANCE_MM`, mm. */
+  readonly lengthMm: number;
 }
 
 /** Everything the drawings of one plan show, in the plan's own numbers (die-body frame, working temperature). */
@@ -290,7 +304,15 @@ export function drawingModel(
     const lo = Math.min(...end.travelMm);
     const hi = Math.max(...end.travelMm);
     const at = (t: number): Point => [end.origin[0] + t * end.direction[0], end.origin[1] + t * end.direction[1]];
-    slots.push({ joint: `slot_${which}`, from: at(lo), to: at(hi), widthMm: 2 * e });
+    // the slider block is 4e long and 2e wide round its pin (see `block`)
+    slots.push({
+      joint: `slot_${which}`,
+      from: at(lo),
+      to: at(hi),
+      direction: end.direction,
+      widthMm: 2 * e + SLOT_FIT_CLEARANCE_MM,
+      lengthMm: hi - lo + 4 * e + SLOT_FIT_CLEARANCE_MM,
+    });
   }
   const actuators: DrawnActuator[] = mechanism.actuators.map((a) => {
     const joint = jointById.get(a.joint);

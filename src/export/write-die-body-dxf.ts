@@ -1,5 +1,5 @@
 import type { Point } from '../geometry/index.js';
-import type { DrawingModel } from './drawing-model.js';
+import { type DrawingModel, SLOT_FIT_CLEARANCE_MM } from './drawing-model.js';
 import { DxfBuilder } from './dxf-builder.js';
 import { boxOf, commonNotes, mmText, NOTE_LAYERS, place, TEXT_HEIGHT_MM, writeNotes } from './drawing-notes.js';
 import { formatNumber } from './format-number.js';
@@ -29,8 +29,8 @@ const LAYERS = [
 
 /**
  * The die body as the plan needs it: the fixed opening the plates close (the envelope of every station), the die-body
- * pin holes (ground pivots of the chain and of links) with centre marks and labels, slot paths (the pin's travel and
- * the slot outline round it), actuator mounts (a ring three hole diameters across round the actuated joint, with its
+ * pin holes (ground pivots of the chain and of links) with centre marks and labels, slots (the pin's travel and the
+ * pocket the slider block runs in, with a sliding clearance), actuator mounts (a ring three hole diameters across round the actuated joint, with its
  * range), and the area swept by every moving part over the stations and the steps between them (keep the die body's
  * own steel, bolts and guards out of it). Notes and cautions below.
  */
@@ -55,7 +55,7 @@ export function writeDieBodyDxf(model: DrawingModel, scale: ThermalScale): strin
     const a = at(s.from);
     const b = at(s.to);
     dxf.line(DIE_BODY_LAYERS.slots, a, b);
-    dxf.polyline(DIE_BODY_LAYERS.slots, slotOutline(a, b, (s.widthMm * f) / 2), true);
+    dxf.polyline(DIE_BODY_LAYERS.slots, pocketOutline(a, b, s.direction, s.lengthMm * f, s.widthMm * f), true);
     dxf.text(
       DIE_BODY_LAYERS.labels,
       [b[0] + s.widthMm, b[1]],
@@ -79,12 +79,17 @@ export function writeDieBodyDxf(model: DrawingModel, scale: ThermalScale): strin
     );
     actuatorLines.push(line);
   }
+  const slotLines = model.slots.map(
+    (s) =>
+      `${s.joint}: pocket ${mmText(s.lengthMm * f)} x ${mmText(s.widthMm * f)} mm for the slider block (its travel plus its length, its width, each + ${mmText(SLOT_FIT_CLEARANCE_MM)} mm sliding clearance); relieve the corners for the cutter.`,
+  );
   const box = boxOf([...rings, ...model.sweptEnvelope.map((r) => r.outer)].map((r) => r.map(at)));
   writeNotes(
     dxf,
     [box.minX, box.minY - 10],
     [
       `DIE BODY: ${model.scheduleName}. Fixed opening (layer ${DIE_BODY_LAYERS.opening}); die-body pin holes; slots; actuator mounts; area swept by the moving parts (layer ${DIE_BODY_LAYERS.swept}): ${model.sweepNote}. Keep die-body steel, bolts and guards clear of the swept area.`,
+      ...slotLines,
       ...(actuatorLines.length > 0 ? actuatorLines : ['No actuators: the plan found no way to drive the chain.']),
       ...commonNotes(model, scale),
     ],
@@ -93,20 +98,16 @@ export function writeDieBodyDxf(model: DrawingModel, scale: ThermalScale): strin
   return dxf.write();
 }
 
-/** A slot outline: a capsule of half width r round a–b (a circle when a = b), counter-clockwise. */
-function slotOutline(a: Point, b: Point, r: number): Point[] {
-  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-  const base = len > 0 ? Math.atan2(b[1] - a[1], b[0] - a[0]) : 0;
-  const steps = 16;
-  const out: Point[] = [];
-  for (const [c, from] of [
-    [b, base - Math.PI / 2],
-    [a, base + Math.PI / 2],
-  ] as const) {
-    for (let k = 0; k <= steps; k++) {
-      const t = from + (Math.PI * k) / steps;
-      out.push([c[0] + r * Math.cos(t), c[1] + r * Math.sin(t)]);
-    }
-  }
-  return out;
+/**
+ * A slot's pocket: a rectangle `length` × `width` centred on the middle of the pin's travel a–b, its length along the
+ * unit vector `u`, counter-clockwise.
+ */
+function pocketOutline(a: Point, b: Point, u: Point, length: number, width: number): Point[] {
+  const m: Point = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+  const v: Point = [-u[1], u[0]];
+  const corner = (s: number, t: number): Point => [
+    m[0] + (s * length * u[0]) / 2 + (t * width * v[0]) / 2,
+    m[1] + (s * length * u[1]) / 2 + (t * width * v[1]) / 2,
+  ];
+  return [corner(-1, -1), corner(1, -1), corner(1, 1), corner(-1, 1)];
 }

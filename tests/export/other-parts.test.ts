@@ -1,7 +1,7 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { ICircleEntity, ILineEntity, ILwpolylineEntity } from 'dxf-parser';
+import type { ICircleEntity, ILineEntity, ILwpolylineEntity, ITextEntity } from 'dxf-parser';
 import pc from 'polygon-clipping';
 import { describe, expect, it } from 'vitest';
 import {
@@ -155,6 +155,38 @@ describe('a slotted end is drawn as a slider block and a slot in the die body', 
     const [a, b] = lines[0]!.vertices;
     expect(Math.hypot(b!.x - a!.x, b!.y - a!.y)).toBeCloseTo(travel, 5);
     expect(entitiesOn(dxf, 'LWPOLYLINE', DIE_BODY_LAYERS.slots)).toHaveLength(1);
+  });
+
+  it('the slot is a pocket the slider block fits at both ends of its travel, 0.02 mm wider and longer (polygon-clipping)', () => {
+    const end = slotted === 'start' ? fit.chain.start : fit.chain.end;
+    if (end.kind !== 'slot') throw new Error('no slot');
+    const e = fit.shape.edgeOffsetMm;
+    const dxf = readDxf(writeDieBodyDxf(made.model, hot));
+    const pocket = entitiesOn<ILwpolylineEntity>(dxf, 'LWPOLYLINE', DIE_BODY_LAYERS.slots)[0]!;
+    const ring = pocket.vertices.map((v) => [v.x, v.y] as [number, number]);
+    const f = hot.factor;
+    // a rectangle: (travel + 4e + 0.02) × (2e + 0.02), scaled with the drawing (shoelace area; DXF coordinates are
+    // written to a few micrometres)
+    const travel = Math.max(...end.travelMm) - Math.min(...end.travelMm);
+    expect(Math.abs(shoelace(ring as Xy[]))).toBeCloseTo((travel + 4 * e + 0.02) * (2 * e + 0.02) * f * f, 4);
+    // the slider block (4e × 2e round its pin) at either end of the pin's travel lies inside the pocket: nothing of
+    // it is left outside by polygon-clipping's difference
+    for (const t of [Math.min(...end.travelMm), Math.max(...end.travelMm)]) {
+      const c = [end.origin[0] + t * end.direction[0], end.origin[1] + t * end.direction[1]];
+      const [u, v] = [end.direction, [-end.direction[1], end.direction[0]]];
+      const corner = (a: number, b: number): [number, number] => [
+        f * (c[0]! + a * 2 * e * u[0] + b * e * v[0]!),
+        f * (c[1]! + a * 2 * e * u[1] + b * e * v[1]!),
+      ];
+      const blockRing = [corner(-1, -1), corner(1, -1), corner(1, 1), corner(-1, 1)];
+      const outside = pc.difference([blockRing], [ring]);
+      const left = outside.reduce((sum, poly) => sum + Math.abs(shoelace(poly[0] as Xy[])), 0);
+      expect(left).toBeLessThan(1e-6);
+    }
+    const note = entitiesOn<ITextEntity>(dxf, 'TEXT', 'notes')
+      .map((t) => t.text)
+      .join(' ');
+    expect(note).toContain('+ 0.020 mm sliding clearance');
   });
 });
 
