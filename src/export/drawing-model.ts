@@ -88,6 +88,14 @@ export interface DrawnActuator {
 }
 
 /**
+ * Length of each half of a telescoping pair whose pivots are `stationLengths` apart over the stations: half the
+ * longest distance plus e/2, so that the two straight melt edges overlap by e at the longest station, mm.
+ */
+export function telescopingHalfLength(stationLengths: readonly number[], e: number): number {
+  return (Math.max(...stationLengths) + e) / 2;
+}
+
+/**
  * A straight slot in the die body for a chain end, mm: a pocket the slider block runs in, long enough for the block at
  * both ends of the pin's travel.
  */
@@ -102,6 +110,31 @@ export interface DrawnSlot {
   readonly widthMm: number;
   /** Length of the pocket: the pin's travel plus the block's length plus `SLOT_FIT_CLEARANCE_MM`, mm. */
   readonly lengthMm: number;
+}
+
+/**
+ * A telescoping pair as drawn: two halves of one length, each from its own pivot towards the other, so that their melt
+ * edges overlap by e at the pair's longest station (no gap for the melt) and slide over each other as it shortens.
+ */
+export interface DrawnTelescoping {
+  /** The plate that telescopes (`plate_3`; its halves are `plate_3` and `plate_3_slide`). */
+  readonly plate: string;
+  /** Distance between the pair's pivots over the stations, mm. */
+  readonly pivotsApartMm: { readonly min: number; readonly max: number };
+  /** Length of each half from its pivot to its far end's centre (the round end adds e), mm. */
+  readonly halfLengthMm: number;
+  /** How far the halves' straight melt edges overlap at the longest station, mm (e by construction). */
+  readonly overlapAtLongestMm: number;
+  /**
+   * At the shortest station, how far each half's far end reaches past the edge of the other half's pin hole, mm;
+   * negative: it stops that far short.
+   */
+  readonly reachPastPinMm: number;
+  /**
+   * Halves whose layer lies between the layers the other half's pin joins (so the pin passes through that layer) while
+   * the half reaches it: they would hit the pin. Empty when the stack lets them pass.
+   */
+  readonly clashes: readonly string[];
 }
 
 /** Everything the drawings of one plan show, in the plan's own numbers (die-body frame, working temperature). */
@@ -121,6 +154,7 @@ export interface DrawingModel {
   /** Die-body pin holes: chain ends pinned to the die body and links' ground pins, at their fixed place. */
   readonly groundHoles: readonly DrawnHole[];
   readonly slots: readonly DrawnSlot[];
+  readonly telescoping: readonly DrawnTelescoping[];
   readonly actuators: readonly DrawnActuator[];
   /** Union of every moving part over every configuration drawn (stations and intermediate steps), mm. */
   readonly sweptEnvelope: readonly Region[];
@@ -138,8 +172,10 @@ export type DrawingRefusal = { readonly ok: false; readonly reason: string };
  * clipping draws them (`plateOutline` between the pivots where the mechanism puts them, the same pivot fans and shaped
  * edges; docs/MODEL.md §2); a link pin closer than e to a plate's side edge sits in a boss of radius e, as the
  * clearance model draws it, and the plate's cut outline is widened by it. Links are capsules of half width e round
- * their pin line (the clearance model's steel width). Telescoping halves: each a straight plate of the pair's shortest
- * station length from its own pivot (the clipping treats the pair as one plate whose length changes). Slider blocks:
+ * their pin line (the clearance model's steel width). Telescoping halves: two straight plates, each from its own pivot, long
+ * enough that their melt edges overlap by e at the pair's longest station (the clipping treats the pair as one plate
+ * whose length changes, so the edge must stay whole); whether each half then meets the other half's pin at the
+ * shortest station, in a layer that pin passes through, is recorded (`telescoping`). Slider blocks:
  * 4e long along the slot, 2e wide, round their pin. A plan that failed (no fitted chain, no mechanism) is refused
  * with its reason.
  */
@@ -178,7 +214,7 @@ export function drawingModel(
       const id = `plate_${k}`;
       const stationLengths = telescoping.get(k);
       if (stationLengths) {
-        const length = Math.min(...stationLengths);
+        const length = telescopingHalfLength(stationLengths, e);
         const u = unit(a, b);
         for (const [half, from, dir, joint] of [
           [id, a, u, `pivot_${k - 1}`],
@@ -314,6 +350,33 @@ export function drawingModel(
       lengthMm: hi - lo + 4 * e + SLOT_FIT_CLEARANCE_MM,
     });
   }
+  const telescopingPairs: DrawnTelescoping[] = [...telescoping].map(([k, stationLengths]) => {
+    const min = Math.min(...stationLengths);
+    const max = Math.max(...stationLengths);
+    const halfLengthMm = telescopingHalfLength(stationLengths, e);
+    const reachPastPinMm = halfLengthMm + e - (min - holeDiameterMm / 2);
+    const pinLayers = (joint: string): [number, number] => {
+      const layers = (jointById.get(joint)?.bodies ?? []).map((b) => (b === 'die_body' ? 0 : (layerOf.get(b) ?? 0)));
+      return [Math.min(...layers), Math.max(...layers)];
+    };
+    const clashes: string[] = [];
+    for (const [half, otherPin] of [
+      [`plate_${k}`, `pivot_${k}`],
+      [`plate_${k}_slide`, `pivot_${k - 1}`],
+    ] as const) {
+      const [lo, hi] = pinLayers(otherPin);
+      const layer = layerOf.get(half) ?? 1;
+      if (reachPastPinMm > 0 && layer >= lo && layer <= hi) clashes.push(half);
+    }
+    return {
+      plate: `plate_${k}`,
+      pivotsApartMm: { min, max },
+      halfLengthMm,
+      overlapAtLongestMm: 2 * halfLengthMm - max,
+      reachPastPinMm,
+      clashes,
+    };
+  });
   const actuators: DrawnActuator[] = mechanism.actuators.map((a) => {
     const joint = jointById.get(a.joint);
     const bodies = joint?.bodies ?? ['die_body', 'die_body'];
@@ -342,6 +405,7 @@ export function drawingModel(
       stations,
       groundHoles,
       slots,
+      telescoping: telescopingPairs,
       actuators,
       sweptEnvelope,
       sweepNote: steps.note,

@@ -8,10 +8,13 @@ export {
   type DrawnPart,
   type DrawnSlot,
   type DrawnStation,
+  type DrawnTelescoping,
   drawingModel,
   PIN_HOLE_FIT_CLEARANCE_MM,
   type PartKind,
+  SLOT_FIT_CLEARANCE_MM,
   STEPS_PER_TRANSITION,
+  telescopingHalfLength,
 } from './drawing-model.js';
 export {
   CUT_TEMPERATURE_C,

@@ -1,5 +1,5 @@
 import type { Point } from '../geometry/index.js';
-import type { DrawingModel, DrawnPart } from './drawing-model.js';
+import type { DrawingModel, DrawnPart, DrawnTelescoping } from './drawing-model.js';
 import { DxfBuilder } from './dxf-builder.js';
 import {
   boxOf,
@@ -69,7 +69,7 @@ export function partNotes(part: DrawnPart, model: DrawingModel, scale: ThermalSc
       ? "Cut outline: the plate outline the plan clips the die opening with, built on the plan's pivots."
       : part.kind === 'plate'
         ? 'Cut outline: the plate outline the plan clips with, widened by a boss round a link pin (as the clearance checks draw it).'
-        : `Cut outline: ${outlineWords(part)}.`,
+        : `Cut outline: ${outlineWords(part, model, scale.factor)}.`,
     ...commonNotes(model, scale),
   ];
 }
@@ -81,15 +81,31 @@ function spacing(part: DrawnPart, factor: number): string {
   return `; ${a.joint} to ${b.joint} ${mmText(Math.hypot(b.centre[0] - a.centre[0], b.centre[1] - a.centre[1]) * factor)} mm apart`;
 }
 
-function outlineWords(part: DrawnPart): string {
+function outlineWords(part: DrawnPart, model: DrawingModel, factor: number): string {
   switch (part.kind) {
     case 'link':
       return 'a link of the steel width the clearance checks use, round ends on its pin centres';
     case 'slider block':
       return 'a block that runs in the die-body slot, its pin hole in the middle';
-    default:
-      return "one half of a telescoping pair, as long as the pair's shortest station length; guide and seal the slide as the tool maker sees fit";
+    default: {
+      const pair = model.telescoping.find((t) => part.id === t.plate || part.id === `${t.plate}_slide`);
+      return pair ? telescopingWords(pair, part.id, factor) : 'one half of a telescoping pair';
+    }
   }
+}
+
+/**
+ * What a drawing says about a telescoping half (`half`, or either half when null): its length, the overlap of the
+ * melt edges at the longest station and where its end meets the other half's pin at the shortest.
+ */
+export function telescopingWords(pair: DrawnTelescoping, half: string | null, factor: number): string {
+  const mm = (v: number) => mmText(v * factor);
+  const clash = half === null ? pair.clashes.length > 0 : pair.clashes.includes(half);
+  const reach =
+    pair.reachPastPinMm > 0
+      ? `at the shortest its end reaches ${mm(pair.reachPastPinMm)} mm past the edge of the other half's pin hole, ${clash ? `IN A LAYER THAT PIN PASSES THROUGH (${pair.clashes.join(', ')}): it would hit the pin; change the stack or the pin before cutting` : 'in a layer that pin does not pass through'}`
+      : `at the shortest its end stops ${mm(-pair.reachPastPinMm)} mm short of the other half's pin hole`;
+  return `one half of telescoping ${pair.plate}, ${mm(pair.halfLengthMm)} mm from its pivot to its far end's centre (the pivots are ${mm(pair.pivotsApartMm.min)} to ${mm(pair.pivotsApartMm.max)} mm apart over the stations), so the two halves' melt edges overlap ${mm(pair.overlapAtLongestMm)} mm at the longest; ${reach}. Guide and seal the slide as the tool maker sees fit`;
 }
 
 /** A label of a part placed at `at`: its id and stack layer. */

@@ -12,7 +12,7 @@ import {
   writeNotes,
 } from './drawing-notes.js';
 import type { ThermalScale } from './thermal-scale.js';
-import { labelPart, PART_LAYERS } from './write-part-dxf.js';
+import { labelPart, PART_LAYERS, telescopingWords } from './write-part-dxf.js';
 
 const LAYERS = [
   { name: PART_LAYERS.outline, colour: 7 },
@@ -86,6 +86,9 @@ export function writePartsSheetDxf(model: DrawingModel, scale: ThermalScale): st
     [0, below - TEXT_HEIGHT_MM],
     [
       `Parts placed as at station 1, moved apart for cutting (not rotated); ${SHEET_GAP_MM} mm or more between parts.`,
+      ...model.telescoping.map(
+        (t) => `${t.plate} and ${t.plate}_slide: each is ${telescopingWords(t, null, scale.factor)}.`,
+      ),
       ...commonNotes(model, scale),
     ],
     model,

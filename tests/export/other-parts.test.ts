@@ -8,6 +8,7 @@ import {
   DIE_BODY_LAYERS,
   drawingModel,
   PART_LAYERS,
+  telescopingHalfLength,
   thermalScale,
   writeDieBodyDxf,
   writePartDxf,
@@ -109,13 +110,58 @@ describe('a telescoping pair is drawn as two parts', () => {
     }
   });
 
-  it("each half is as long as the pair's shortest station length: the outline of a plate that long (same area)", () => {
-    const shortest = Math.min(...fit.chain.telescoping[0]!.stationLengthsMm);
-    const bar = plateOutline([0, 0], [shortest, 0], fit.shape);
+  it('each half is (longest + e) / 2 long: the outline of a plate that long (same area), and the notes say so', () => {
+    const pair = made.model.telescoping[0]!;
+    const lengths = fit.chain.telescoping[0]!.stationLengthsMm;
+    const e = fit.shape.edgeOffsetMm;
+    expect(pair.plate).toBe('plate_3');
+    expect(pair.pivotsApartMm).toEqual({ min: Math.min(...lengths), max: Math.max(...lengths) });
+    expect(pair.halfLengthMm).toBeCloseTo((Math.max(...lengths) + e) / 2, 12);
+    expect(pair.overlapAtLongestMm).toBeCloseTo(e, 12);
+    const bar = plateOutline([0, 0], [pair.halfLengthMm, 0], fit.shape);
     for (const id of ['plate_3', 'plate_3_slide']) {
       const part = parts.find((p) => p.id === id)!;
       expect(Math.abs(shoelace(part.outline as Xy[]))).toBeCloseTo(regionArea({ outer: bar.outer, holes: [] }), 6);
     }
+    const cold = thermalScale('cold', schedule.process.dieTemperatureC);
+    const notes = entitiesOn<ITextEntity>(readDxf(writePartDxf(made.model, 'plate_3', cold)!), 'TEXT', 'notes')
+      .map((t) => t.text)
+      .join(' ');
+    expect(notes).toContain('one half of telescoping plate_3');
+    // the known chain's plate is 11–15 mm long and e is 5 mm, so each half (10 mm + a 5 mm round end) runs past the
+    // other half's pin at the shortest: the drawing says whether the stack lets it pass
+    expect(pair.reachPastPinMm).toBeGreaterThan(0);
+    expect(notes).toMatch(
+      /past the edge of the other half's pin hole, (in a layer that pin does not|IN A LAYER THAT PIN)/,
+    );
+  });
+});
+
+describe('telescoping halves keep the melt edge whole at the longest station', () => {
+  // two halves along the x axis, pivots at 0 and d (the longest station), each drawn as plateOutline from its own pivot
+  // towards the other, as the drawing model draws them; the pair must cover the one plate the clipping assumes
+  const shape = { edgeOffsetMm: 5, depthMm: 25, holeRadiusMm: 2, arcToleranceMm: 0.01 };
+  const uncovered = (d: number, half: number): number => {
+    const whole = plateOutline([0, 0], [d, 0], shape).outer as Xy[];
+    const a = plateOutline([0, 0], [half, 0], shape).outer as Xy[];
+    const b = plateOutline([d - half, 0], [d, 0], shape).outer as Xy[];
+    const left = pc.difference([whole], [a], [b]);
+    return left.reduce((sum, poly) => sum + Math.abs(shoelace(poly[0] as Xy[])), 0);
+  };
+
+  it('halves of (longest + e) / 2 leave nothing of the one plate uncovered (polygon-clipping)', () => {
+    for (const lengths of [
+      [11, 15],
+      [10, 30],
+      [20, 21],
+    ]) {
+      const d = Math.max(...lengths);
+      expect(uncovered(d, telescopingHalfLength(lengths, 5))).toBeLessThan(1e-6);
+    }
+  });
+
+  it('halves as long as the shortest station would leave a gap in the melt edge for a long stroke (10 to 30 mm)', () => {
+    expect(uncovered(30, 10)).toBeGreaterThan(1);
   });
 });
 
