@@ -92,6 +92,7 @@ const STATUS_TEXT: Record<string, string> = {
   '415': 'unsupported_media_type: send application/json',
   '422': 'plan_too_large (station boundaries over 20 m) or idempotency_conflict (key used with another schedule)',
   '429': 'rate_limited: too many requests (Retry-After)',
+  '500': 'internal: the service failed unexpectedly and stored nothing; report the request_id (no stack trace or path)',
   '503': 'service_busy (Retry-After), or not ready',
 };
 
@@ -136,7 +137,7 @@ type Operation = {
 };
 
 /**
- * Completes the generated document: every /v1 route lists the statuses the app's hooks add (401, 403, 429; 304,
+ * Completes the generated document: every /v1 route lists the statuses the app's hooks add (401, 403, 429, 500; 304,
  * 409 not_ready and 503 service_busy on a plan's downloads), every response says what it means, the open routes need
  * no token, the schedule routes carry an example, and component schemas no route uses are dropped.
  */
@@ -149,7 +150,8 @@ export function completeOpenapi<T extends object>(document: T): T {
     for (const [method, op] of Object.entries(item)) {
       op.responses ??= {};
       if (path.startsWith('/v1/')) {
-        for (const status of ['401', '403', '429']) op.responses[status] ??= errorResponse();
+        // every /v1 route can fail unexpectedly: the error handler then answers 500 internal in the catalogue's shape
+        for (const status of ['401', '403', '429', '500']) op.responses[status] ??= errorResponse();
         if (path.startsWith('/v1/plans/{id}/') && method === 'get') {
           op.responses['304'] ??= { description: '' };
           op.responses['404'] ??= errorResponse();
@@ -165,6 +167,8 @@ export function completeOpenapi<T extends object>(document: T): T {
           response.description = STATUS_TEXT[status] ?? 'see api-spec/errors.md';
         }
         if (status === '304' || status === '204') delete response.content;
+        // errors are JSON on every route, whatever a download's own type (the generator gives them the route's)
+        if (path.startsWith('/v1/') && Number(status) >= 400) response.content = errorResponse().content;
       }
       const body = op.requestBody?.content?.['application/json'];
       if (body && (path === '/v1/plans' || path === '/v1/checks')) body.example = SCHEDULE_EXAMPLE;

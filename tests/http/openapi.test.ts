@@ -23,6 +23,39 @@ describe('the published description', () => {
     }
   });
 
+  it('every /v1 route lists the statuses it can answer (RFC 9110 status meanings), each error with the Error schema', () => {
+    const doc = JSON.parse(readFileSync(new URL('../../api-spec/openapi.json', import.meta.url), 'utf8'));
+    const need: [RegExp, string, string[]][] = [
+      [/^\/v1\//, '', ['401', '403', '429', '500']],
+      [/^\/v1\/(checks|plans)$/, 'post', ['400', '413', '415', '503']],
+      [/^\/v1\/plans$/, 'post', ['202', '422']],
+      [/^\/v1\/plans\/\{id\}$/, 'get', ['200', '304', '404']],
+      [/^\/v1\/plans\/\{id\}$/, 'delete', ['204', '404']],
+      [/^\/v1\/plans\/\{id\}\/.+/, 'get', ['200', '304', '404', '409', '503']],
+    ];
+    let checked = 0;
+    for (const [path, item] of Object.entries(doc.paths as Record<string, Record<string, { responses: object }>>)) {
+      for (const [method, op] of Object.entries(item)) {
+        const responses = op.responses as Record<string, { content?: Record<string, { schema?: unknown }> }>;
+        for (const [pattern, verb, statuses] of need) {
+          if (!pattern.test(path) || (verb !== '' && verb !== method)) continue;
+          for (const status of statuses) {
+            expect(responses[status], `${method.toUpperCase()} ${path} ${status}`).toBeDefined();
+            checked++;
+          }
+        }
+        for (const [status, response] of Object.entries(responses)) {
+          if (path.startsWith('/v1/') && Number(status) >= 400) {
+            expect(response.content?.['application/json']?.schema, `${method} ${path} ${status}`).toEqual({
+              $ref: '#/components/schemas/Error',
+            });
+          }
+        }
+      }
+    }
+    expect(checked).toBeGreaterThan(100);
+  });
+
   it('the service version matches package.json', () => {
     const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8'));
     expect(SERVICE_VERSION).toBe(pkg.version);
