@@ -24,6 +24,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import autocannon from 'autocannon';
+import { scheduleAtVertexLimit } from '../tests/support/large-schedule.js';
 
 const { values } = parseArgs({
   options: {
@@ -76,7 +77,7 @@ try {
   await finished(ids);
   const minutes = (performance.now() - t0) / 60_000;
 
-  const large = largeSchedule();
+  const large = scheduleAtVertexLimit();
   const held = await healthWhile(async () => {
     for (let i = 0; i < 3; i++) {
       const check = await fetch(`${base}/v1/checks`, { method: 'POST', headers: JSON_HEADERS, body: large });
@@ -118,22 +119,6 @@ function figures(r: autocannon.Result): string[] {
 
 async function cannon(url: string, n: number): Promise<autocannon.Result> {
   return autocannon({ url, connections: n, duration, pipelining: 1 });
-}
-
-/**
- * A valid schedule at the vertex limit: 40 stations, each an elliptic orifice of 5,000 vertices (200,000 in all),
- * coordinates to 3 decimals, its boundaries well inside the plan size limit.
- */
-function largeSchedule(): string {
-  const stations = Array.from({ length: 40 }, (_, k) => {
-    const a = 20 + 0.1 * k;
-    const outer = Array.from({ length: 5000 }, (_, i) => {
-      const t = (2 * Math.PI * i) / 5000;
-      return [Number((a * Math.cos(t)).toFixed(3)), Number((3 * Math.sin(t)).toFixed(3))];
-    });
-    return { position_m: 0.05 * k, orifice: { outer } };
-  });
-  return JSON.stringify({ name: 'bench-large', material: 'PVC-U', stations });
 }
 
 /** Latencies of GET /healthz sent every 5 ms (one at a time) while `work` runs: p50, p99 and the longest, ms. */

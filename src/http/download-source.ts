@@ -3,6 +3,7 @@ import type { PlanStore, StoredArtifact } from '../store/index.js';
 import { type CachedDownload, DownloadCache } from './download-cache.js';
 import { ERROR_CATALOGUE, type ErrorCode, errorBody } from './error-catalogue.js';
 import { isDefaultDownload } from './render-download.js';
+import { sendBusy } from './worker-replies.js';
 
 /**
  * Where a finished plan's downloads come from, in order: memory (the downloads sent last), the store (rendered by the
@@ -124,13 +125,7 @@ export async function sendDownload<R extends DownloadReply>(
     download = await source.get(id, name);
   } catch (err) {
     if (!(err instanceof PoolBusyError)) throw err;
-    return reply
-      .code(503)
-      .header('retry-after', '2')
-      .send({
-        ...errorBody('service_busy', 'Too many downloads are waiting for a worker; try again in 2 s.'),
-        request_id: requestId,
-      });
+    return sendBusy(reply, requestId, 'downloads');
   }
   if (download.refusal === null) return reply.headers(download.headers).send(download.body);
   const code = download.refusal as ErrorCode;

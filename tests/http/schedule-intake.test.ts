@@ -5,6 +5,7 @@ import { checkBody, planBody, readSchedule } from '../../src/http/schedule-intak
 import { ScheduleWire } from '../../src/http/schedule-schema.js';
 import { toSchedule } from '../../src/http/to-schedule.js';
 import { scheduleHash, unpackJson } from '../../src/store/index.js';
+import { scheduleAtVertexLimit } from '../support/large-schedule.js';
 import { useTestApp } from '../support/test-app.js';
 
 /**
@@ -89,24 +90,11 @@ describe('checkBody and planBody', () => {
   });
 });
 
-/** A valid schedule at the vertex limit: 40 stations of 5,000 vertices (about 3 MB of JSON). */
-function schedule200kVertices(): string {
-  const stations = Array.from({ length: 40 }, (_, k) => {
-    const a = 20 + 0.1 * k;
-    const outer = Array.from({ length: 5000 }, (_, i) => {
-      const t = (2 * Math.PI * i) / 5000;
-      return [Number((a * Math.cos(t)).toFixed(3)), Number((3 * Math.sin(t)).toFixed(3))];
-    });
-    return { position_m: 0.05 * k, orifice: { outer } };
-  });
-  return JSON.stringify({ name: 'large', material: 'PVC-U', stations });
-}
-
 describe('the service hands posted bodies to a worker', () => {
   const app = useTestApp({ settlePlans: false });
 
   it('checks and queues a schedule at the vertex limit (its bytes moved to the worker, not copied)', async () => {
-    const text = schedule200kVertices();
+    const text = scheduleAtVertexLimit();
     expect(text.length).toBeGreaterThan(2_500_000);
     const checked = await request(app().server).post('/v1/checks').set('content-type', 'application/json').send(text);
     expect(checked.status).toBe(200);

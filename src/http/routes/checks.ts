@@ -1,9 +1,9 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { PoolBusyError, type WorkerPool } from '../../jobs/index.js';
 import { keepJsonBodyBytes, validateAllButBody } from '../body-bytes.js';
-import { ERROR_CATALOGUE, errorBody } from '../error-catalogue.js';
 import { CheckReportWire, ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
+import { sendBusy, sendRefusal } from '../worker-replies.js';
 
 /**
  * `POST /v1/checks`: measure every station and report process findings, with safety cautions. The whole check, from
@@ -43,19 +43,9 @@ export function checkRoutes(pool: WorkerPool): FastifyPluginAsyncZod {
           answer = await pool.check(request.body as unknown as Buffer);
         } catch (err) {
           if (!(err instanceof PoolBusyError)) throw err;
-          return reply
-            .code(503)
-            .header('retry-after', '2')
-            .send({
-              ...errorBody('service_busy', 'Too many checks are waiting for a worker; try again in 2 s.'),
-              request_id: request.id,
-            });
+          return sendBusy(reply, request.id, 'checks');
         }
-        if (!answer.ok) {
-          return reply
-            .code(ERROR_CATALOGUE[answer.code].status as 400)
-            .send({ ...errorBody(answer.code, answer.message, answer.details), request_id: request.id });
-        }
+        if (!answer.ok) return sendRefusal(reply, request.id, answer);
         request.log.info({ stations: answer.stations, findings: answer.findings }, 'schedule checked');
         // written in the worker by the route's response schema
         return reply.header('content-type', 'application/json; charset=utf-8').send(answer.reportJson as never);

@@ -5,7 +5,7 @@ import { type PlanJobs, PoolBusyError, type WorkerPool } from '../../jobs/index.
 import { processCautions } from '../../safety/index.js';
 import { isPlanCursor, type PlanEntry, type PlanStore } from '../../store/index.js';
 import { keepJsonBodyBytes, validateAllButBody } from '../body-bytes.js';
-import { ERROR_CATALOGUE, errorBody } from '../error-catalogue.js';
+import { errorBody } from '../error-catalogue.js';
 import { matchesEtag, planEtag } from '../plan-gate.js';
 import {
   IdempotencyHeadersWire,
@@ -18,6 +18,7 @@ import {
 import { ErrorWire } from '../report-schema.js';
 import { ScheduleWire } from '../schedule-schema.js';
 import { toCautionWire, toFindingWire } from '../to-check-report.js';
+import { sendBusy, sendRefusal } from '../worker-replies.js';
 
 /** Finished plans' reports kept encoded for GET /v1/plans/{id}, and most bytes they may hold (64 MiB). */
 const SENT_PLANS = 256;
@@ -101,22 +102,9 @@ export function planRoutes({ store, jobs, pool, pollAfterS }: PlanRouteDeps): Fa
           taken = await pool.takePlan(request.body as unknown as Buffer);
         } catch (err) {
           if (!(err instanceof PoolBusyError)) throw err;
-          return reply
-            .code(503)
-            .header('retry-after', '2')
-            .send({
-              ...errorBody(
-                'service_busy',
-                'Too many schedules are waiting for a worker to read them; try again in 2 s.',
-              ),
-              request_id: request.id,
-            });
+          return sendBusy(reply, request.id, 'posted schedules');
         }
-        if (!taken.ok) {
-          return reply
-            .code(ERROR_CATALOGUE[taken.code].status as 400)
-            .send({ ...errorBody(taken.code, taken.message, taken.details), request_id: request.id });
-        }
+        if (!taken.ok) return sendRefusal(reply, request.id, taken);
         const hash = taken.scheduleHash;
         const key = request.headers['idempotency-key'] ?? null;
         const { entry, created } = store.add({
