@@ -123,6 +123,7 @@ export function simulationFindings(
     MOTION_LEAK_AREA_MM2,
     (run, range) =>
       `The plates leave ${fmt(sim.leakAreaMm2[run.worst]!)} mm² of the die opening uncovered apart from the orifice ${range} (worst at ${fmt(x[run.worst]!, 4)} m): melt would leak there while the plates move, though every station is sealed. Deeper plates, wider pivot fans or another motion law.`,
+    (j) => sim.leakAt?.[j] ?? null,
   );
   add(
     'MOTION_OPENING_BEYOND_STATIONS',

@@ -1,6 +1,7 @@
 import {
   closestPointOnPolyline,
   differenceRegions,
+  interiorPoint,
   intersectRegions,
   measureWalls,
   type Point,
@@ -90,6 +91,11 @@ export interface MotionSimulation {
   /** Opening the plates leave uncovered apart from the orifice (melt would leak there), mm² per step. */
   readonly leakAreaMm2: readonly number[];
   /**
+   * A point inside the largest leaking piece per step, die-body frame, mm (where to look); null without a leak. Absent
+   * from plans stored before it was recorded.
+   */
+  readonly leakAt?: readonly (Point | null)[];
+  /**
    * How far the orifice reaches outside both neighbouring stations' orifices per step, mm (0 inside either): above the
    * fit tolerance the opening is larger there than either station asks for.
    */
@@ -137,6 +143,7 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
   const areaMm2: number[] = [];
   const perimeterMm: number[] = [];
   const leakAreaMm2: number[] = [];
+  const leakAt: (Point | null)[] = [];
   const beyondStationsMm: number[] = [];
   const minWallMm: (number | null)[] = [];
   const minWallAt: (Point | null)[] = [];
@@ -184,6 +191,7 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
       areaMm2.push(0);
       perimeterMm.push(0);
       leakAreaMm2.push(0);
+      leakAt.push(null);
       beyondStationsMm.push(0);
       minWallMm.push(null);
       minWallAt.push(null);
@@ -215,8 +223,12 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
     }
     let orifice: Region = open[best] ?? { outer: [], holes: [] };
     let leak = 0;
+    let largestLeak: Region | null = null;
     open.forEach((piece, i) => {
-      if (i !== best) leak += regionArea(piece);
+      if (i === best) return;
+      const a = regionArea(piece);
+      leak += a;
+      if (largestLeak === null || a > regionArea(largestLeak)) largestLeak = piece;
     });
     if (holes[from]!.length > 0 && orifice.outer.length >= 3) {
       const cut = differenceRegions([orifice], holes[from]!);
@@ -226,6 +238,7 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
     areaMm2.push(area);
     perimeterMm.push(area > 0 ? regionPerimeter(orifice) : 0);
     leakAreaMm2.push(leak);
+    leakAt.push(largestLeak !== null && (largestLeak as Region).outer.length >= 3 ? interiorPoint(largestLeak) : null);
     beyondStationsMm.push(area > 0 ? reachBeyond(orifice, near) : 0);
     const walls = measured && area > 0 ? wallsOf(orifice) : null;
     minWallMm.push(walls ? walls.minWallMm : null);
@@ -244,6 +257,7 @@ export function simulateMotion(input: MotionSimulationInput, settings: MotionSim
     areaMm2,
     perimeterMm,
     leakAreaMm2,
+    leakAt,
     beyondStationsMm,
     minWallMm,
     minWallAt,

@@ -150,6 +150,39 @@ describe('simulateMotion: leaks between valid stations', () => {
     expect(leak.toPositionM!).toBeLessThan(1);
     expect(leak.message).toMatch(/from [\d.]+ m to [\d.]+ m of line \(between stations 0 and 1\)/);
     expect(leak.message).toMatch(/Every station meets this limit: only the motion between them breaks it\./);
+
+    // where to look: the finding's point is the simulation's at its worst step, and at a step where the pieces differ
+    // in size it lies inside the leaking piece polygon-clipping finds, not in the orifice (the piece of the simulated
+    // orifice's area)
+    const worst = sim.leakAreaMm2.indexOf(leak.value!);
+    expect(leak.at).toEqual(sim.leakAt![worst]);
+    const j = first + 5;
+    const u = positionsM[j]!;
+    const angle = Math.PI / 2 - Math.PI * (u - Math.sin(2 * Math.PI * u) / (2 * Math.PI));
+    const plate = plateOutline([-25, 0], [-25 + 60 * Math.cos(angle), 60 * Math.sin(angle)], shape).outer.map(
+      (p) => [p[0], p[1]] as [number, number],
+    );
+    const pieces = pc
+      .difference([square(20).outer.map((p) => [p[0], p[1]] as [number, number])], [plate])
+      .map((poly) => poly[0]!);
+    expect(pieces).toHaveLength(2);
+    const orifice = pieces.find((ring) => Math.abs(Math.abs(shoelace(ring)) - sim.areaMm2[j]!) < 1e-2)!;
+    const leaking = pieces.find((ring) => ring !== orifice)!;
+    expect(Math.abs(shoelace(leaking))).toBeCloseTo(sim.leakAreaMm2[j]!, 2);
+    const inside = (ring: readonly [number, number][], [x, y]: readonly [number, number]) => {
+      // even-odd ray casting (Shimrat 1962)
+      let odd = false;
+      for (let a = 0, b = ring.length - 1; a < ring.length; b = a++) {
+        const [xa, ya] = ring[a]!;
+        const [xb, yb] = ring[b]!;
+        if (ya > y !== yb > y && x < ((xb - xa) * (y - ya)) / (yb - ya) + xa) odd = !odd;
+      }
+      return odd;
+    };
+    expect(inside(leaking, sim.leakAt![j]!)).toBe(true);
+    expect(inside(orifice, sim.leakAt![j]!)).toBe(false);
+    // no leak, no point
+    expect(sim.leakAt![0]).toBeNull();
   });
 });
 
