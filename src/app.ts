@@ -87,9 +87,6 @@ export const HELMET_OPTIONS = Object.freeze({
 /** Longest path parameter, characters (a plan id is a 36-character UUID); longer ones answer 404 `not_found`. */
 const MAX_PARAM_LENGTH = 100;
 
-/** Routes below this are a plan's downloads. */
-const DOWNLOAD_PREFIX = '/v1/plans/:id/';
-
 /** Seconds a client is told to wait before asking again for a plan that is not finished. */
 const POLL_AFTER_S = 1;
 
@@ -318,63 +315,57 @@ export async function buildApp(options: AppOptions) {
   // If-None-Match → 304, Link to the plan; the route then sends the file from memory, the store or a worker
   // (DownloadSource), never rendering on this thread
   const downloads = new DownloadSource(store, pool);
-  app.addHook('preHandler', async (request, reply) => {
-    const route = request.routeOptions.url;
-    if (route === undefined || !route.startsWith(DOWNLOAD_PREFIX)) return;
-    if (request.method !== 'GET' && request.method !== 'HEAD') return;
-    const id = (request.params as { id?: string }).id ?? '';
-    const entry = store.entry(id);
-    if (!entry) return send(reply, request.id, 'not_found', `No plan with id ${id}.`);
-    if (entry.status === 'queued' || entry.status === 'running') {
-      reply.header('retry-after', String(POLL_AFTER_S));
-      return send(
-        reply,
-        request.id,
-        'not_ready',
-        `Plan ${id} is ${entry.status}: its downloads exist once it is finished. GET /v1/plans/${id} shows its progress.`,
-      );
-    }
-    // the resource as asked for (path and query), not the route's pattern: each part of plates/{part}.dxf is its own
-    const asked = request.url.slice(request.url.indexOf('/', '/v1/plans/'.length) + 1);
-    const etag = planEtag(entry, asked);
-    reply.header('link', `</v1/plans/${id}>; rel="describedby"`);
-    if (etag) {
-      reply.header('etag', etag);
-      reply.header('cache-control', 'private, no-cache');
-      // a tag this service sent names a download it answered 200 (errors carry none, below); `*` matches only a
-      // download that exists, so it is judged once the route has answered
-      const ifNoneMatch = request.headers['if-none-match'];
-      if (matchesEtag(ifNoneMatch, etag) && !namesAnyTag(ifNoneMatch)) return reply.code(304).send();
-    }
-  });
-  app.addHook('onSend', (request, reply, payload, done) => {
-    const route = request.routeOptions.url;
-    if (route === undefined || !route.startsWith(DOWNLOAD_PREFIX) || reply.statusCode === 304) {
-      return done(null, payload);
-    }
-    if (reply.statusCode !== 200) {
-      // a refusal (no motion, no such part, a bad query) is not a representation to keep or revalidate
-      reply.removeHeader('etag');
-      reply.removeHeader('cache-control');
-      return done(null, payload);
-    }
-    if (!namesAnyTag(request.headers['if-none-match'])) return done(null, payload);
-    reply.code(304);
-    done(null, '');
-  });
-  app.addHook('onResponse', (request, reply, done) => {
-    if (request.method === 'DELETE' && reply.statusCode === 204 && request.routeOptions.url === '/v1/plans/:id') {
-      downloads.forget((request.params as { id: string }).id);
-    }
-    done();
-  });
-
+  // in their own scope, so no other route runs these hooks
+  const downloadRoutes = async (scope: typeof app) => {
+    scope.addHook('preHandler', async (request, reply) => {
+      if (request.method !== 'GET' && request.method !== 'HEAD') return;
+      const id = (request.params as { id?: string }).id ?? '';
+      const entry = store.entry(id);
+      if (!entry) return send(reply, request.id, 'not_found', `No plan with id ${id}.`);
+      if (entry.status === 'queued' || entry.status === 'running') {
+        reply.header('retry-after', String(POLL_AFTER_S));
+        return send(
+          reply,
+          request.id,
+          'not_ready',
+          `Plan ${id} is ${entry.status}: its downloads exist once it is finished. GET /v1/plans/${id} shows its progress.`,
+        );
+      }
+      // the resource as asked for (path and query), not the route's pattern: each part of plates/{part}.dxf is its own
+      const asked = request.url.slice(request.url.indexOf('/', '/v1/plans/'.length) + 1);
+      const etag = planEtag(entry, asked);
+      reply.header('link', `</v1/plans/${id}>; rel="describedby"`);
+      if (etag) {
+        reply.header('etag', etag);
+        reply.header('cache-control', 'private, no-cache');
+        // a tag this service sent names a download it answered 200 (errors carry none, below); `*` matches only a
+        // download that exists, so it is judged once the route has answered
+        const ifNoneMatch = request.headers['if-none-match'];
+        if (matchesEtag(ifNoneMatch, etag) && !namesAnyTag(ifNoneMatch)) return reply.code(304).send();
+      }
+    });
+    scope.addHook('onSend', (request, reply, payload, done) => {
+      if (reply.statusCode === 304) return done(null, payload);
+      if (reply.statusCode !== 200) {
+        // a refusal (no motion, no such part, a bad query) is not a representation to keep or revalidate
+        reply.removeHeader('etag');
+        reply.removeHeader('cache-control');
+        return done(null, payload);
+      }
+      if (!namesAnyTag(request.headers['if-none-match'])) return done(null, payload);
+      reply.code(304);
+      done(null, '');
+    });
+    await scope.register(planDownloadRoutes(downloads));
+    await scope.register(planDrawingRoutes(downloads));
+  };
   const rateLimitOff = { rateLimit: false } as const;
   await app.register(healthRoutes({ store, jobs, pool, config: rateLimitOff }));
   await app.register(checkRoutes(pool));
-  await app.register(planRoutes({ store, jobs, pool, pollAfterS: POLL_AFTER_S }));
-  await app.register(planDownloadRoutes(downloads));
-  await app.register(planDrawingRoutes(downloads));
+  await app.register(
+    planRoutes({ store, jobs, pool, pollAfterS: POLL_AFTER_S, onDeleted: (id) => downloads.forget(id) }),
+  );
+  await app.register(downloadRoutes);
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   await app.register(pageRoutes);
   return app;

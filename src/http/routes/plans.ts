@@ -29,6 +29,8 @@ export interface PlanRouteDeps {
   readonly jobs: PlanJobs;
   /** Reads posted schedules off the service thread. */
   readonly pool: WorkerPool;
+  /** Called once a plan is deleted (the downloads it had in memory are forgotten). */
+  readonly onDeleted?: (id: string) => void;
   /** Seconds a client is told (Retry-After) to wait before polling a plan that is not finished. */
   readonly pollAfterS: number;
 }
@@ -39,7 +41,7 @@ const errors = { 400: ErrorWire, 401: ErrorWire, 403: ErrorWire, 429: ErrorWire 
  * `POST /v1/plans` stores the schedule and queues the plan (answering 202 before any planning), `GET /v1/plans/{id}`
  * shows where it stands or its result, `GET /v1/plans` lists plans, `DELETE /v1/plans/{id}` stops and removes one.
  */
-export function planRoutes({ store, jobs, pool, pollAfterS }: PlanRouteDeps): FastifyPluginAsyncZod {
+export function planRoutes({ store, jobs, pool, pollAfterS, onDeleted }: PlanRouteDeps): FastifyPluginAsyncZod {
   return async (app) => {
     keepJsonBodyBytes(app);
     // finished plans never change: their reports are kept encoded with their tags, so a read writes bytes as they
@@ -231,6 +233,7 @@ export function planRoutes({ store, jobs, pool, pollAfterS }: PlanRouteDeps): Fa
         await jobs.cancel(id);
         store.delete(id);
         forget(id);
+        onDeleted?.(id);
         request.log.info({ plan: id }, 'plan deleted');
         return reply.code(204).send(null);
       },
