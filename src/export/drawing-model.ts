@@ -1,5 +1,12 @@
 import type { Caution, Finding, Schedule } from '../domain/index.js';
-import { type Point, type Region, type Ring, regionArea, unionRegions } from '../geometry/index.js';
+import {
+  type Point,
+  pointToRingDistance,
+  type Region,
+  type Ring,
+  regionArea,
+  unionRegions,
+} from '../geometry/index.js';
 import { initialPose, jointPoint, type Pose, solvePosition } from '../kinematics/index.js';
 import { toRadians } from '../numeric/index.js';
 import type { Plan } from '../pipeline/index.js';
@@ -246,7 +253,7 @@ export function drawingModel(
         const pin = joints.get(joint)!;
         holes.push(hole(pin, joint));
         // the clearance model's boss: a pin nearer than e to the plate's edge sits in a disc of radius e
-        if (ringDistance(pin, outline.outer) < e) {
+        if (pointToRingDistance(pin, outline.outer) < e) {
           const merged = unionRegions([
             { outer: outline.outer, holes: [] },
             { outer: disc(pin, e, 24), holes: [] },
@@ -524,21 +531,6 @@ function meltEdgeOf(outer: Ring, edgePoints: number): Point[] {
 function unit(a: Point, b: Point): Point {
   const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
   return len > 0 ? [(b[0] - a[0]) / len, (b[1] - a[1]) / len] : [1, 0];
-}
-
-/** Distance from p to a ring's boundary, mm. */
-function ringDistance(p: Point, ring: Ring): number {
-  let best = Number.POSITIVE_INFINITY;
-  for (let i = 0; i < ring.length; i++) {
-    const a = ring[i]!;
-    const b = ring[(i + 1) % ring.length]!;
-    const dx = b[0] - a[0];
-    const dy = b[1] - a[1];
-    const len2 = dx * dx + dy * dy;
-    const t = len2 > 0 ? Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
-    best = Math.min(best, Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy));
-  }
-  return best;
 }
 
 /** A regular polygon of `sides` vertices on a circle of radius r round c, counter-clockwise. */

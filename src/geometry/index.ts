@@ -24,6 +24,7 @@ export { intersectRegions } from './intersect-regions.js';
 export { symmetricDifferenceArea } from './symmetric-difference-area.js';
 export { regionsArea } from './regions-area.js';
 export { pointToSegmentDistance } from './point-to-segment-distance.js';
+export { pointToRingDistance } from './point-to-ring-distance.js';
 export { type SegmentProjection, closestPointOnSegment } from './closest-point-on-segment.js';
 export { type PolylineProjection, closestPointOnPolyline } from './closest-point-on-polyline.js';
 export { type BoundaryPath, type DirectedHausdorff, directedHausdorffDistance } from './directed-hausdorff-distance.js';

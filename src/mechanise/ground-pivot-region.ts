@@ -3,9 +3,8 @@ import {
   boundingBox,
   type Point,
   pointInRegion,
-  pointToSegmentDistance,
+  pointToRingDistance,
   type Region,
-  type Ring,
 } from '../geometry/index.js';
 import { DEFAULT_TOLERANCES } from '../numeric/index.js';
 
@@ -82,15 +81,7 @@ export function groundPivotRegion(
 /** Distance from `p` to the nearest edge of the region's rings, mm. */
 export function regionEdgeDistance(p: Point, region: Region): number {
   let best = Number.POSITIVE_INFINITY;
-  for (const ring of [region.outer, ...region.holes]) best = Math.min(best, ringDistance(p, ring));
-  return best;
-}
-
-function ringDistance(p: Point, ring: Ring): number {
-  let best = Number.POSITIVE_INFINITY;
-  for (let k = 0; k < ring.length; k++) {
-    best = Math.min(best, pointToSegmentDistance(p, ring[k]!, ring[(k + 1) % ring.length]!));
-  }
+  for (const ring of [region.outer, ...region.holes]) best = Math.min(best, pointToRingDistance(p, ring));
   return best;
 }
 

@@ -1,11 +1,11 @@
 import {
-  closestPointOnPolyline,
   differenceRegions,
   interiorPoint,
   intersectRegions,
   measureWalls,
   type Point,
   pointInRing,
+  pointToRingDistance,
   type Region,
   type Ring,
   type WallMeasurement,
@@ -303,7 +303,7 @@ function reachBeyond(orifice: Region, near: readonly Ring[]): number {
         inside = true;
         break;
       }
-      nearest = Math.min(nearest, closestPointOnPolyline(p, ring, true).distance);
+      nearest = Math.min(nearest, pointToRingDistance(p, ring));
     }
     if (!inside) reach = Math.max(reach, nearest);
   }

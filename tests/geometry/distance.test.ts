@@ -6,6 +6,7 @@ import {
   hausdorffDistance,
   type Point,
   offsetRegions,
+  pointToRingDistance,
   pointToSegmentDistance,
   type Region,
   regionBoundaryHausdorff,
@@ -162,6 +163,42 @@ describe('Hausdorff distance', () => {
       }
       expect(d.distance + maxError).toBeGreaterThanOrEqual(sampled - 1e-12);
       expect(d.distance).toBeLessThanOrEqual(sampled + h / 2 + 1e-12);
+    }
+  });
+});
+
+describe('pointToRingDistance', () => {
+  it('from outside, inside and far away to a regular 1000-gon of circumradius 10 mm: r − R at a vertex, r − R·cos(π/n) at an edge middle (elementary geometry)', () => {
+    const n = 1000;
+    const R = 10;
+    const ring: Point[] = Array.from({ length: n }, (_, k) => [
+      R * Math.cos((2 * Math.PI * k) / n),
+      R * Math.sin((2 * Math.PI * k) / n),
+    ]);
+    const apothem = R * Math.cos(Math.PI / n);
+    for (const k of [0, 1, 250, 499, 731, 999]) {
+      const vertex = (2 * Math.PI * k) / n;
+      const middle = vertex + Math.PI / n;
+      for (const r of [0, 3, 9.5, 12, 100]) {
+        const atVertex: Point = [r * Math.cos(vertex), r * Math.sin(vertex)];
+        const atMiddle: Point = [r * Math.cos(middle), r * Math.sin(middle)];
+        // outside, the nearest point along a vertex direction is the vertex; inside it is on one of its two edges
+        if (r > R) expect(pointToRingDistance(atVertex, ring)).toBeCloseTo(r - R, 9);
+        expect(pointToRingDistance(atMiddle, ring)).toBeCloseTo(Math.abs(r - apothem), 9);
+      }
+    }
+    expect(pointToRingDistance([1, 2], [])).toBe(Number.POSITIVE_INFINITY);
+  });
+
+  it('equals the smallest point-to-segment distance over every edge on random rings and points', () => {
+    const random = mulberry32(20261202);
+    for (let trial = 0; trial < 200; trial++) {
+      const m = 3 + Math.floor(random() * 60);
+      const ring: Point[] = Array.from({ length: m }, () => [random() * 100 - 50, random() * 100 - 50]);
+      const p: Point = [random() * 160 - 80, random() * 160 - 80];
+      let brute = Number.POSITIVE_INFINITY;
+      for (let i = 0; i < m; i++) brute = Math.min(brute, pointToSegmentDistance(p, ring[i]!, ring[(i + 1) % m]!));
+      expect(pointToRingDistance(p, ring)).toBe(brute);
     }
   });
 });
