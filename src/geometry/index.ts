@@ -9,6 +9,7 @@ export { type RingOrientation, orientRing } from './orient-ring.js';
 export { normalizeRing } from './normalize-ring.js';
 export { normalizeRegion } from './normalize-region.js';
 export { type PointLocation, pointInRing } from './point-in-ring.js';
+export { type RingLocator, ringLocator } from './ring-locator.js';
 export { pointInRegion } from './point-in-region.js';
 export { interiorPoint } from './interior-point.js';
 export { type RegionFault, type RegionFaultKind, validateRegion } from './validate-region.js';

@@ -4,6 +4,7 @@ import {
   pointInRing,
   pointToSegmentDistance,
   type Ring,
+  ringLocator,
 } from '../geometry/index.js';
 import type { BodyPose, Mechanism } from '../kinematics/index.js';
 import { DEFAULT_TOLERANCES } from '../numeric/index.js';
@@ -82,6 +83,8 @@ export interface ClearanceParts {
  */
 export function makeClearanceInspector(parts: ClearanceParts): ClearanceInspector {
   const { plates, links, layerOf, opening, pinRadiusMm: pinRadius, steelMm: steel } = parts;
+  // the opening is the same ring at every configuration: located through its bucketed edges
+  const inOpening = ringLocator(opening, DEFAULT_TOLERANCES);
   const worst = new Map<string, ClearanceRecord>();
   const overlaps = new Set<string>();
   const note = (kind: ClearanceKind, a: string, b: string, clearanceMm: number, at: MotionPlace) => {
@@ -126,7 +129,7 @@ export function makeClearanceInspector(parts: ClearanceParts): ClearanceInspecto
         let cover = Number.POSITIVE_INFINITY;
         for (let s = 0; s <= steps; s++) {
           const q: Point = [a[0] + ((b[0] - a[0]) * s) / steps, a[1] + ((b[1] - a[1]) * s) / steps];
-          if (pointInRing(q, opening, DEFAULT_TOLERANCES) === 'outside') continue;
+          if (inOpening(q) === 'outside') continue;
           // how deep inside the plates q lies: the largest depth over the plates covering it
           let depth = Number.NEGATIVE_INFINITY;
           for (const p of world) depth = Math.max(depth, -signedDistance(q, p.ring));

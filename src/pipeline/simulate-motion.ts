@@ -4,7 +4,7 @@ import {
   intersectRegions,
   measureWalls,
   type Point,
-  pointInRing,
+  ringLocator,
   pointToRingDistance,
   type Region,
   type Ring,
@@ -299,7 +299,7 @@ function reachBeyond(orifice: Region, near: readonly Ring[]): number {
     let nearest = Number.POSITIVE_INFINITY;
     let inside = false;
     for (const ring of near) {
-      if (pointInRing(p, ring, DEFAULT_TOLERANCES) !== 'outside') {
+      if (ringLocator(ring, DEFAULT_TOLERANCES)(p) !== 'outside') {
         inside = true;
         break;
       }

@@ -6,10 +6,11 @@ import {
   type Point,
   pointInRegion,
   pointInRing,
+  ringLocator,
   signedRingArea,
   validateRegion,
 } from '../../src/geometry/index.js';
-import { annulus, rectangle, reversed } from './shapes.js';
+import { annulus, mulberry32, rectangle, reversed } from './shapes.js';
 
 describe('normalizeRing and normalizeRegion', () => {
   it('normalizeRing drops repeated, collinear and closing points and turns the ring counter-clockwise', () => {
@@ -115,6 +116,39 @@ describe('pointInRing and pointInRegion', () => {
       // a point just inside the tolerance off the edge's middle, outwards, is still on the boundary
       const out: Point = [mid[0] * (1 + (0.5 * tol.lengthMm) / apothem), mid[1] * (1 + (0.5 * tol.lengthMm) / apothem)];
       expect(pointInRing(out, ring, tol)).toBe('boundary');
+    }
+  });
+
+  it('ringLocator answers as pointInRing on random rings, for points anywhere, on vertices and edges, and just off them', () => {
+    const random = mulberry32(7);
+    for (let trial = 0; trial < 40; trial++) {
+      // a star-shaped ring of 64–600 vertices (bucketed) or 5–60 (direct), radii 5–25 mm, sometimes axis-aligned runs
+      const m = trial % 4 === 0 ? 5 + Math.floor(random() * 56) : 64 + Math.floor(random() * 537);
+      const ring: Point[] = Array.from({ length: m }, (_, k) => {
+        const a = (2 * Math.PI * k) / m;
+        const r = 5 + 20 * random();
+        return trial % 3 === 0
+          ? [Math.round(r * Math.cos(a)), Math.round(r * Math.sin(a))]
+          : [r * Math.cos(a), r * Math.sin(a)];
+      });
+      const locate = ringLocator(ring, tol);
+      expect(ringLocator(ring, tol)).toBe(locate);
+      const queries: Point[] = [];
+      for (let q = 0; q < 300; q++) queries.push([random() * 70 - 35, random() * 70 - 35]);
+      for (let k = 0; k < m; k += 3) {
+        const [a, b] = [ring[k]!, ring[(k + 1) % m]!];
+        const s = random();
+        const on: Point = [a[0] + s * (b[0] - a[0]), a[1] + s * (b[1] - a[1])];
+        queries.push(a, on);
+        for (const d of [0.5, 1, 2, 10]) {
+          queries.push(
+            [on[0] + d * tol.lengthMm, on[1]],
+            [on[0], on[1] - d * tol.lengthMm],
+            [a[0], a[1] + d * tol.lengthMm],
+          );
+        }
+      }
+      for (const p of queries) expect(locate(p), `${p}`).toBe(pointInRing(p, ring, tol));
     }
   });
 
