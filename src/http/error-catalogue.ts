@@ -95,7 +95,8 @@ export const ERROR_CATALOGUE = Object.freeze({
   },
   service_busy: {
     status: 503,
-    meaning: 'Too many checks or downloads are waiting for a worker, or the service is shutting down.',
+    meaning:
+      'Too many posted schedules (checks and plans) or downloads are waiting for a worker, or the service is shutting down.',
     fix: 'Wait the seconds in `Retry-After` and try again.',
   },
   internal: {
