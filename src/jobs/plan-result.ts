@@ -3,7 +3,7 @@ import type { UnreadableFigure } from '../http/readable-report.js';
 import { readablePlan } from '../http/readable-plan-report.js';
 import type { Plan } from '../pipeline/index.js';
 import { processCautions } from '../safety/index.js';
-import { encodeJson, type PlanRecord, type PlanResult, textHash } from '../store/index.js';
+import { encodeJson, type PlanRecord, type PlanResult, packText, textHash } from '../store/index.js';
 
 /** What the job adds to a finished plan's report besides the plan itself. */
 export interface JobFacts {
@@ -34,7 +34,13 @@ export function planResult(
     progress: null,
   };
   return {
-    result: { status: plan.status, error: plan.error, planJson, reportJson: JSON.stringify(report), planHash },
+    result: {
+      status: plan.status,
+      error: plan.error,
+      planPacked: packText(planJson),
+      reportJson: JSON.stringify(report),
+      planHash,
+    },
     unreadable: readable.unreadable,
   };
 }

@@ -45,7 +45,8 @@ export interface RenderTask {
   readonly createdAt: string;
   /** The plan's schedule, packed by `packJson`. */
   readonly schedulePacked: Uint8Array;
-  readonly planJson: string;
+  /** The plan, packed by `packJson`. */
+  readonly planPacked: Uint8Array;
   readonly planHash: string;
   readonly names?: readonly string[];
 }
@@ -97,7 +98,7 @@ export default function runTask(
           id: task.id,
           createdAt: task.createdAt,
           schedulePacked: task.schedulePacked,
-          planJson: written.result.planJson,
+          planPacked: written.result.planPacked,
           planHash: written.result.planHash,
         };
         artifacts = renderDownloads(storedRecord(stored), stored.planHash);
@@ -132,6 +133,6 @@ function storedRecord(task: Omit<RenderTask, 'kind' | 'names'>): PlanRecord {
     id: task.id,
     createdAt: task.createdAt,
     schedule: unpackJson(task.schedulePacked),
-    plan: decodeJson(task.planJson),
+    plan: unpackJson(task.planPacked),
   };
 }

@@ -15,6 +15,6 @@ export {
   type StoredArtifact,
 } from './plan-store.js';
 export { isPlanCursor, SqlitePlanStore } from './sqlite-plan-store.js';
-export { decodeJson, encodeJson, packJson, unpackJson } from './json-codec.js';
+export { decodeJson, encodeJson, packJson, packText, unpackJson } from './json-codec.js';
 export { scheduleHash, textHash } from './schedule-hash.js';
 export { MIGRATIONS } from './migrations.js';

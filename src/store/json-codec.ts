@@ -26,7 +26,12 @@ export function decodeJson<T>(text: string): T {
  * are about 3 MB of JSON and compress about 3×, so the service thread writes and reads a third of the bytes.
  */
 export function packJson(value: unknown): Uint8Array {
-  return gzipSync(encodeJson(value), { level: 1 });
+  return packText(encodeJson(value));
+}
+
+/** Text written by `encodeJson`, packed as `packJson` packs it (for a caller that needs the text too). */
+export function packText(json: string): Uint8Array {
+  return gzipSync(json, { level: 1 });
 }
 
 /** Reads what `packJson` wrote. */

@@ -69,4 +69,11 @@ export const MIGRATIONS: readonly { readonly version: number; readonly name: str
         die_temperature_c = json_extract(schedule_json, '$.process.dieTemperatureC');
     `,
   },
+  {
+    version: 4,
+    name: 'plans compressed',
+    sql: `
+      ALTER TABLE results ADD COLUMN plan_gz BLOB;
+    `,
+  },
 ];

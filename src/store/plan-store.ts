@@ -91,8 +91,8 @@ export interface ClaimedPlan {
 export interface PlanResult {
   readonly status: 'done' | 'incomplete' | 'failed';
   readonly error: string | null;
-  /** The plan, encoded by `encodeJson`. */
-  readonly planJson: string;
+  /** The plan, packed by `packJson` (its hash is of the text `encodeJson` writes). */
+  readonly planPacked: Uint8Array;
   /** The `GET /v1/plans/{id}` report, JSON, sent as stored. */
   readonly reportJson: string;
   readonly planHash: string;
@@ -160,7 +160,8 @@ export interface PlanStore {
         readonly createdAt: string;
         /** The schedule, packed by `packJson`. */
         readonly schedulePacked: Uint8Array;
-        readonly planJson: string;
+        /** The plan, packed by `packJson`. */
+        readonly planPacked: Uint8Array;
         readonly planHash: string;
       }
     | undefined;

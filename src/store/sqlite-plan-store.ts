@@ -3,7 +3,7 @@ import { dirname } from 'node:path';
 import Database from 'better-sqlite3';
 import type { Finding, MaterialName, Schedule } from '../domain/index.js';
 import type { Plan } from '../pipeline/index.js';
-import { decodeJson, encodeJson, packJson, unpackJson } from './json-codec.js';
+import { decodeJson, encodeJson, packJson, packText, unpackJson } from './json-codec.js';
 import { MIGRATIONS } from './migrations.js';
 import type {
   ClaimedPlan,
@@ -44,6 +44,17 @@ interface ScheduleRow {
 /** A stored schedule, packed by `packJson` (one written as text before schedules were packed is packed now). */
 function packedSchedule(row: ScheduleRow): Uint8Array {
   return row.schedule_gz ?? packJson(decodeJson(row.schedule_json));
+}
+
+/** A stored plan: packed (`plan_gz`), or as JSON text in a file written before plans were packed. */
+interface PlanRow {
+  plan_json: string;
+  plan_gz: Buffer | null;
+}
+
+/** A stored plan, packed by `packJson` (one written as text before plans were packed is packed now). */
+function packedPlan(row: PlanRow): Uint8Array {
+  return row.plan_gz ?? packText(row.plan_json);
 }
 
 /** Bytes as better-sqlite3 binds them (a Buffer); a view of the same memory, not a copy. */
@@ -106,12 +117,12 @@ export class SqlitePlanStore implements PlanStore {
       ),
       requestFindings: db.prepare('SELECT request_findings_json AS json FROM plans WHERE id = ?'),
       finished: db.prepare(
-        `SELECT p.created_at, s.schedule_json, s.schedule_gz, r.plan_json FROM plans p
+        `SELECT p.created_at, s.schedule_json, s.schedule_gz, r.plan_json, r.plan_gz FROM plans p
          JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
       ),
       report: db.prepare('SELECT report_json AS json FROM results WHERE plan_id = ?'),
       resultText: db.prepare(
-        `SELECT p.created_at, s.schedule_json, s.schedule_gz, r.plan_json, r.plan_hash FROM plans p
+        `SELECT p.created_at, s.schedule_json, s.schedule_gz, r.plan_json, r.plan_gz, r.plan_hash FROM plans p
          JOIN schedules s ON s.hash = p.schedule_hash JOIN results r ON r.plan_id = p.id WHERE p.id = ?`,
       ),
       artifact: db.prepare(
@@ -136,7 +147,8 @@ export class SqlitePlanStore implements PlanStore {
          WHERE id = ? AND status = 'running'`,
       ),
       insertResult: db.prepare(
-        'INSERT OR REPLACE INTO results (plan_id, plan_hash, plan_json, report_json) VALUES (?, ?, ?, ?)',
+        `INSERT OR REPLACE INTO results (plan_id, plan_hash, plan_json, plan_gz, report_json)
+         VALUES (?, ?, '', ?, ?)`,
       ),
       requeue: db.prepare(
         "UPDATE plans SET status = 'queued', stage = NULL, fraction = NULL WHERE id = ? AND status = 'running'",
@@ -195,14 +207,14 @@ export class SqlitePlanStore implements PlanStore {
     const cached = this.cache.get(id);
     if (cached) return cached;
     const row = this.statements.finished.get(id) as
-      | (ScheduleRow & { created_at: string; plan_json: string })
+      | (ScheduleRow & PlanRow & { created_at: string })
       | undefined;
     if (!row) return undefined;
     const record: PlanRecord = {
       id,
       createdAt: row.created_at,
       schedule: unpackJson<Schedule>(packedSchedule(row)),
-      plan: decodeJson<Plan>(row.plan_json),
+      plan: unpackJson<Plan>(packedPlan(row)),
     };
     remember(this.cache, id, record, RECORD_CACHE_SIZE);
     return record;
@@ -259,13 +271,13 @@ export class SqlitePlanStore implements PlanStore {
 
   resultText(id: string) {
     const row = this.statements.resultText.get(id) as
-      | (ScheduleRow & { created_at: string; plan_json: string; plan_hash: string })
+      | (ScheduleRow & PlanRow & { created_at: string; plan_hash: string })
       | undefined;
     if (!row) return undefined;
     return {
       createdAt: row.created_at,
       schedulePacked: packedSchedule(row),
-      planJson: row.plan_json,
+      planPacked: packedPlan(row),
       planHash: row.plan_hash,
     };
   }
@@ -324,7 +336,7 @@ export class SqlitePlanStore implements PlanStore {
     return this.db.transaction(() => {
       const changed = this.statements.finish.run(result.status, result.error, finishedAt, id).changes;
       if (changed === 0) return false;
-      this.statements.insertResult.run(id, result.planHash, result.planJson, result.reportJson);
+      this.statements.insertResult.run(id, result.planHash, asBuffer(result.planPacked), result.reportJson);
       this.insertArtifacts(id, result.artifacts ?? []);
       return true;
     })();

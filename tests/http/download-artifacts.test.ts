@@ -154,7 +154,7 @@ describe('downloads stored with the plan', () => {
     const result: PlanResult = {
       status: store.entry(id)!.status as PlanResult['status'],
       error: null,
-      planJson: text.planJson,
+      planPacked: text.planPacked,
       reportJson: store.report(id)!,
       planHash: text.planHash,
     };

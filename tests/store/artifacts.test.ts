@@ -9,6 +9,8 @@ import {
   SqlitePlanStore,
   type StoredArtifact,
   scheduleParts,
+  packJson,
+  unpackJson,
 } from '../../src/store/index.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'store-artifacts-'));
@@ -26,7 +28,7 @@ const artifact = (name: string, text: string, refusal: string | null = null): St
 const result = (artifacts?: StoredArtifact[]): PlanResult => ({
   status: 'done',
   error: null,
-  planJson: '{}',
+  planPacked: packJson({}),
   reportJson: '{}',
   planHash: 'a'.repeat(64),
   ...(artifacts ? { artifacts } : {}),
@@ -72,7 +74,8 @@ describe('SqlitePlanStore artifacts', () => {
     expect(store.finish('p', result(files), new Date().toISOString())).toBe(true);
     expect(store.artifactNames('p')).toEqual(['z.csv', 'a.csv', 'plates.dxf']);
     expect(store.artifact('p', 'plates.dxf')).toMatchObject({ refusal: 'no_mechanism', disposition: '' });
-    expect(store.resultText('p')).toMatchObject({ planJson: '{}', planHash: 'a'.repeat(64) });
+    expect(store.resultText('p')).toMatchObject({ planHash: 'a'.repeat(64) });
+    expect(unpackJson(store.resultText('p')!.planPacked)).toEqual({});
     expect(store.addArtifacts('p', [artifact('more.csv', 'm')])).toBe(false);
     expect(store.delete('p')).toBe(true);
     expect(store.artifactNames('p')).toEqual([]);

@@ -14,6 +14,7 @@ import {
   type PlanResult,
   SqlitePlanStore,
   scheduleHash,
+  packJson,
   scheduleParts,
   unpackJson,
 } from '../../src/store/index.js';
@@ -40,7 +41,7 @@ function newPlan(id: string, createdAt: string, schedule = demoSchedule(), key: 
 const result = (status: PlanResult['status'] = 'done'): PlanResult => ({
   status,
   error: status === 'failed' ? 'why' : null,
-  planJson: encodeJson({ status, value: Number.NaN }),
+  planPacked: packJson({ status, value: Number.NaN }),
   reportJson: '{"status":"done"}',
   planHash: 'a'.repeat(64),
 });
@@ -198,6 +199,44 @@ describe('encodeJson / decodeJson and scheduleHash', () => {
       dieTemperatureC: schedule.process.dieTemperatureC,
     });
     expect(unpackJson(store.claimNext('2026-12-02T00:00:00.000Z')!.schedulePacked)).toEqual(schedule);
+    store.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('a plan finished in a file of schema version 3 (plan stored as JSON text) reads the same after the packing step', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plan-store-v3-'));
+    const path = join(dir, 'v3.sqlite');
+    const db = new Database(path);
+    db.exec('CREATE TABLE migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)');
+    for (const m of MIGRATIONS.slice(0, 3)) {
+      db.exec(m.sql);
+      db.prepare('INSERT INTO migrations VALUES (?, ?, ?)').run(m.version, m.name, new Date().toISOString());
+    }
+    const schedule = demoSchedule();
+    const hash = scheduleHash(schedule);
+    const plan = { status: 'done', value: Number.NaN, text: 'kept' };
+    db.prepare('INSERT INTO schedules (hash, name, schedule_json, created_at) VALUES (?, ?, ?, ?)').run(
+      hash,
+      schedule.name,
+      encodeJson(schedule),
+      '2026-12-01T00:00:00.000Z',
+    );
+    db.prepare("INSERT INTO plans (id, created_at, name, schedule_hash, status) VALUES ('old', ?, ?, ?, 'done')").run(
+      '2026-12-01T00:00:00.000Z',
+      schedule.name,
+      hash,
+    );
+    db.prepare("INSERT INTO results (plan_id, plan_hash, plan_json, report_json) VALUES ('old', ?, ?, '{}')").run(
+      'b'.repeat(64),
+      encodeJson(plan),
+    );
+    db.close();
+    const store = new SqlitePlanStore(path);
+    expect(store.get('old')?.plan).toEqual(plan);
+    const text = store.resultText('old')!;
+    expect(unpackJson(text.planPacked)).toEqual(plan);
+    expect(unpackJson(text.schedulePacked)).toEqual(schedule);
+    expect(text.planHash).toBe('b'.repeat(64));
     store.close();
     rmSync(dir, { recursive: true, force: true });
   });
