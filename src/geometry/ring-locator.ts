@@ -1,6 +1,5 @@
 import type { Tolerances } from '../numeric/index.js';
-import { type PointLocation, pointInRing } from './point-in-ring.js';
-import { pointToSegmentDistance } from './point-to-segment-distance.js';
+import { edgeAgainstPoint, type PointLocation, pointInRing } from './point-in-ring.js';
 import type { Point, Ring } from './types.js';
 
 /** Locates points against one ring, as `pointInRing` does, after bucketing its edges once. */
@@ -56,25 +55,13 @@ function bucketed(ring: Ring, t: number): RingLocator {
     for (let band = from; band <= to; band++) members[band]!.push(k);
   }
   return (p) => {
-    const [px, py] = p;
+    const py = p[1];
     if (py < minY - t || py > maxY + t) return 'outside';
     let inside = false;
     for (const k of members[bandOf(py)]!) {
-      const a = ring[k]!;
-      const b = ring[k === 0 ? n - 1 : k - 1]!;
-      if (
-        px >= Math.min(a[0], b[0]) - t &&
-        px <= Math.max(a[0], b[0]) + t &&
-        py >= Math.min(a[1], b[1]) - t &&
-        py <= Math.max(a[1], b[1]) + t &&
-        pointToSegmentDistance(p, a, b) <= t
-      ) {
-        return 'boundary';
-      }
-      if (a[1] > py !== b[1] > py) {
-        const x = a[0] + ((py - a[1]) * (b[0] - a[0])) / (b[1] - a[1]);
-        if (x > px) inside = !inside;
-      }
+      const edge = edgeAgainstPoint(p, ring[k]!, ring[k === 0 ? n - 1 : k - 1]!, t);
+      if (edge === 'boundary') return 'boundary';
+      if (edge === 'crosses') inside = !inside;
     }
     return inside ? 'inside' : 'outside';
   };
