@@ -4,7 +4,7 @@ import type { UnreadableFigure } from '../http/readable-report.js';
 import { type RenderedDownload, renderDownloads } from '../http/render-download.js';
 import { type CheckAnswer, checkBody, type IntakeRefusal, type PlanIntake, planBody } from '../http/schedule-intake.js';
 import { planSchedule } from '../pipeline/index.js';
-import { decodeJson, type PlanRecord, type PlanResult, type StoredArtifact, unpackJson } from '../store/index.js';
+import { type PlanRecord, type PlanResult, type StoredArtifact, unpackJson } from '../store/index.js';
 import { planResult } from './plan-result.js';
 
 /** A plan to compute in a worker: the schedule and what its report needs. Plain data (structured clone). */

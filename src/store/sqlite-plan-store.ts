@@ -206,9 +206,7 @@ export class SqlitePlanStore implements PlanStore {
   get(id: string): PlanRecord | undefined {
     const cached = this.cache.get(id);
     if (cached) return cached;
-    const row = this.statements.finished.get(id) as
-      | (ScheduleRow & PlanRow & { created_at: string })
-      | undefined;
+    const row = this.statements.finished.get(id) as (ScheduleRow & PlanRow & { created_at: string }) | undefined;
     if (!row) return undefined;
     const record: PlanRecord = {
       id,
