@@ -90,7 +90,7 @@ describe('pointInRing and pointInRegion', () => {
     expect(pointInRing([10, 5], sq, tol)).toBe('boundary');
   });
 
-  it('pointInRing on a regular 720-gon of radius 20 mm: inside below the apothem, boundary within the tolerance, outside beyond', () => {
+  it('pointInRing and ringLocator on a regular 720-gon of radius 20 mm: inside below the apothem, boundary within the tolerance, outside beyond', () => {
     // a regular n-gon of circumradius R has apothem R·cos(π/n) (elementary geometry); the vertices and the middle of
     // every edge lie on its boundary
     const n = 720;
@@ -100,22 +100,27 @@ describe('pointInRing and pointInRegion', () => {
       R * Math.sin((2 * Math.PI * k) / n),
     ]);
     const apothem = R * Math.cos(Math.PI / n);
-    for (let k = 0; k < 97; k++) {
-      const t = (2 * Math.PI * k) / 97 + 0.01;
-      const at = (r: number): Point => [r * Math.cos(t), r * Math.sin(t)];
-      expect(pointInRing(at(apothem - 10 * tol.lengthMm), ring, tol)).toBe('inside');
-      expect(pointInRing(at(0.5 * R), ring, tol)).toBe('inside');
-      expect(pointInRing(at(R + 10 * tol.lengthMm), ring, tol)).toBe('outside');
-      expect(pointInRing(at(3 * R), ring, tol)).toBe('outside');
-    }
-    for (let k = 0; k < n; k += 37) {
-      const [a, b] = [ring[k]!, ring[(k + 1) % n]!];
-      expect(pointInRing(a, ring, tol)).toBe('boundary');
-      const mid: Point = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
-      expect(pointInRing(mid, ring, tol)).toBe('boundary');
-      // a point just inside the tolerance off the edge's middle, outwards, is still on the boundary
-      const out: Point = [mid[0] * (1 + (0.5 * tol.lengthMm) / apothem), mid[1] * (1 + (0.5 * tol.lengthMm) / apothem)];
-      expect(pointInRing(out, ring, tol)).toBe('boundary');
+    for (const locate of [(p: Point) => pointInRing(p, ring, tol), ringLocator(ring, tol)]) {
+      for (let k = 0; k < 97; k++) {
+        const t = (2 * Math.PI * k) / 97 + 0.01;
+        const at = (r: number): Point => [r * Math.cos(t), r * Math.sin(t)];
+        expect(locate(at(apothem - 10 * tol.lengthMm))).toBe('inside');
+        expect(locate(at(0.5 * R))).toBe('inside');
+        expect(locate(at(R + 10 * tol.lengthMm))).toBe('outside');
+        expect(locate(at(3 * R))).toBe('outside');
+      }
+      for (let k = 0; k < n; k += 37) {
+        const [a, b] = [ring[k]!, ring[(k + 1) % n]!];
+        expect(locate(a)).toBe('boundary');
+        const mid: Point = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+        expect(locate(mid)).toBe('boundary');
+        // a point just inside the tolerance off the edge's middle, outwards, is still on the boundary
+        const out: Point = [
+          mid[0] * (1 + (0.5 * tol.lengthMm) / apothem),
+          mid[1] * (1 + (0.5 * tol.lengthMm) / apothem),
+        ];
+        expect(locate(out)).toBe('boundary');
+      }
     }
   });
 
